@@ -1,0 +1,47 @@
+//! Scenario files for motley: load, validate, run, and the machine-readable result.
+//!
+//! A scenario names models, observables read from them, and claims about the observables. Loading
+//! goes in two stages (as the style guide asks): the raw form ([`raw`]) mirrors the YAML and rejects
+//! unknown keys; [`validate`](mod@validate) checks every range and resolves every name into a
+//! [`Scenario`]. Every error names the file, line, column and key path.
+//!
+//! # Examples
+//! ```
+//! let text = "
+//! name: tiny
+//! seed: 1
+//! samples: 1000
+//! models:
+//!   rect:
+//!     six-vertex: {width: 2, height: 2, b1: 0.5, b2: 0.5, left: rainbow, bottom: empty}
+//! observables:
+//!   top:
+//!     of: rect
+//!     read: {top: colors}
+//! claims:
+//!   - id: look
+//!     describe: top
+//! ";
+//! let s = motley_scenario::load_str(text, "tiny.yaml").unwrap();
+//! assert_eq!(s.models.len(), 1);
+//!
+//! let bad = text.replace("b1: 0.5", "b1: 1.5");
+//! let e = motley_scenario::load_str(&bad, "tiny.yaml").unwrap_err();
+//! assert!(e.first_line().starts_with("tiny.yaml:7:"));
+//! assert!(e.first_line().contains("`models.rect.six-vertex.b1`: must be a probability in [0, 1], got 1.5"));
+//! ```
+#![deny(missing_docs)]
+
+pub mod error;
+pub mod result;
+pub mod load;
+pub mod locate;
+pub mod raw;
+mod resolve_read;
+pub mod scenario;
+mod suggest;
+pub mod validate;
+
+pub use error::ScenarioError;
+pub use load::load_str;
+pub use scenario::Scenario;

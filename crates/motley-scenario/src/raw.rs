@@ -1,0 +1,443 @@
+//! The raw scenario: a serde mirror of the YAML file, before any range check.
+//!
+//! Every struct rejects unknown keys. Names are kebab-case in the file. Nothing here is trusted: the
+//! validated form lives in [`crate::scenario`], built by [`crate::validate`].
+
+use indexmap::IndexMap;
+use serde::{Deserialize, Serialize};
+
+/// The whole file.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawScenario {
+    /// Short name: the report folder's name. Letters, digits and `-`.
+    pub name: String,
+    /// One-line title for the report.
+    #[serde(default)]
+    pub title: Option<String>,
+    /// Free text: the question in words.
+    #[serde(default)]
+    pub description: Option<String>,
+    /// Scenario seed.
+    pub seed: u64,
+    /// Monte Carlo samples per side of each claim.
+    pub samples: u64,
+    /// Significance level of every verdict.
+    #[serde(default)]
+    pub alpha: Option<f64>,
+    /// Power at which the detectable difference is quoted.
+    #[serde(default)]
+    pub power: Option<f64>,
+    /// Exact mode for all claims: `auto`, `on` or `off`.
+    #[serde(default)]
+    pub exact: Option<RawExactMode>,
+    /// Models, by name.
+    pub models: IndexMap<String, RawModel>,
+    /// Observables, by name.
+    pub observables: IndexMap<String, RawObservable>,
+    /// Claims, in order.
+    #[serde(default)]
+    pub claims: Vec<RawClaim>,
+}
+
+/// `exact:` values.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RawExactMode {
+    /// Exact laws when the system is small enough, Monte Carlo otherwise.
+    Auto,
+    /// Exact laws or an error.
+    On,
+    /// Monte Carlo always.
+    Off,
+}
+
+/// A number given as a decimal or as a rational `"p/q"` string.
+#[derive(Debug, Clone, PartialEq, Deserialize, Serialize)]
+#[serde(untagged)]
+pub enum RawNumber {
+    /// A decimal.
+    Float(f64),
+    /// A rational written `"p/q"` (or an integer string).
+    Text(String),
+}
+
+/// Which order of colors is "stronger" in the file's own numbers.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RawStrength {
+    /// Larger numbers are stronger (motley's own convention; the default).
+    LargerWins,
+    /// Smaller positive numbers are stronger (class 1 strongest); 0 is still empty.
+    SmallerWins,
+}
+
+/// One model.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawModel {
+    /// The colored stochastic six-vertex model on a rectangle.
+    SixVertex(RawSixVertex),
+    /// Multi-species ASEP in continuous time.
+    Exclusion(RawExclusion),
+}
+
+/// `six-vertex:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawSixVertex {
+    /// Columns.
+    pub width: i64,
+    /// Rows.
+    pub height: i64,
+    /// Probability that the stronger color coming from below continues up.
+    pub b1: RawNumber,
+    /// Probability that the stronger color coming from the left continues right.
+    pub b2: RawNumber,
+    /// Colors entering the rows from the left (row 1 at the bottom).
+    pub left: RawBoundary,
+    /// Colors entering the columns from below (column 1 at the left).
+    pub bottom: RawBoundary,
+    /// Color order of the numbers in this block.
+    #[serde(default)]
+    pub strength: Option<RawStrength>,
+}
+
+/// Boundary data along one side.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawBoundary {
+    /// Edge `k` carries color `k`.
+    Rainbow,
+    /// No paths.
+    Empty,
+    /// Every edge carries this color.
+    Step(i64),
+    /// Explicit colors, edge 1 first.
+    List(Vec<i64>),
+    /// Edges `1..=first` carry `color`, the rest `rest`.
+    Blocks(RawBlocks),
+    /// Each edge occupied independently with probability `density`.
+    Bernoulli(RawBernoulli),
+}
+
+/// `blocks:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawBlocks {
+    /// Number of edges in the first block.
+    pub first: i64,
+    /// Color of the first block.
+    pub color: i64,
+    /// Color of the other edges.
+    pub rest: i64,
+}
+
+/// `bernoulli:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawBernoulli {
+    /// Occupation probability.
+    pub density: f64,
+    /// Color of an occupied edge: a number, or `rainbow` (edge `k` gets `k`).
+    pub color: RawColorRule,
+}
+
+/// Color of an occupied random edge.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case", untagged)]
+pub enum RawColorRule {
+    /// One color for all.
+    Fixed(i64),
+    /// `rainbow`: edge `k` gets color `k`.
+    Named(String),
+}
+
+/// `exclusion:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawExclusion {
+    /// `{segment: n}`, `{ring: n}` or `line`.
+    pub lattice: RawLattice,
+    /// Rate at which a stronger particle swaps with the weaker one on its right.
+    pub p: RawNumber,
+    /// Rate at which a stronger particle swaps with the weaker one on its left.
+    pub q: RawNumber,
+    /// Initial arrangement.
+    pub initial: RawInitial,
+    /// Color order of the numbers in this block.
+    #[serde(default)]
+    pub strength: Option<RawStrength>,
+}
+
+/// `lattice:` values.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawLattice {
+    /// Sites `1..=n`, closed ends.
+    Segment(i64),
+    /// Sites `1..=n`, site `n` next to site 1.
+    Ring(i64),
+    /// The whole line ℤ.
+    Line,
+}
+
+/// `initial:` values.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawInitial {
+    /// Site `k` holds class `k` (segment and ring).
+    Packed,
+    /// Explicit colors, site 1 first (segment and ring).
+    List(Vec<i64>),
+    /// On the line: constant far left and far right, with an explicit block.
+    Step(RawLineStep),
+}
+
+/// `step:` keys of a line's initial data.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawLineStep {
+    /// Color of every site left of the block.
+    pub left: i64,
+    /// Color of every site right of the block.
+    pub right: i64,
+    /// Site of the block's first entry.
+    #[serde(default)]
+    pub at: Option<i64>,
+    /// Colors of the block, in site order.
+    #[serde(default)]
+    pub block: Vec<i64>,
+}
+
+/// One observable.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawObservable {
+    /// The model it reads.
+    pub of: String,
+    /// What it reads.
+    pub read: RawRead,
+    /// Threshold projection before reading positions: colors ≥ this become paths.
+    #[serde(default)]
+    pub threshold: Option<i64>,
+    /// Index map applied to a set: `identity`, `reflection` or `{shift: s}`.
+    #[serde(default)]
+    pub map: Option<RawIndexMap>,
+    /// Multiply a scalar by this factor.
+    #[serde(default)]
+    pub scale: Option<f64>,
+}
+
+/// `map:` values.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawIndexMap {
+    /// `k ↦ k`.
+    Identity,
+    /// `k ↦ n + 1 − k`.
+    Reflection,
+    /// `k ↦ k + s`.
+    Shift(i64),
+}
+
+/// How a set is read from a row of edges or sites.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RawSetKind {
+    /// The set of colors found.
+    Colors,
+    /// The set of occupied positions (after `threshold`, if given).
+    Positions,
+}
+
+/// `read:` values.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawRead {
+    /// Six-vertex: the edges leaving through the top.
+    Top(RawSetKind),
+    /// Six-vertex: the edges leaving through the right side.
+    Right(RawSetKind),
+    /// Six-vertex: the vertical edges just above row `y`.
+    Row(RawRowRead),
+    /// Six-vertex: the horizontal edges just right of column `x`.
+    Column(RawColumnRead),
+    /// Six-vertex: the height function at `(x, y)`; exclusion: at site `x` and `time`.
+    Height(RawHeightRead),
+    /// Six-vertex: the column where a color leaves the top (0 if it leaves through the right).
+    ExitColumn(i64),
+    /// Exclusion: sites `from..=to` at `time`.
+    Window(RawWindowRead),
+    /// Exclusion: the site of a class at `time`.
+    Position(RawPositionRead),
+    /// Exclusion: the arrangement position → class at `time`.
+    Arrangement(RawTimeRead),
+    /// Exclusion: the inverse arrangement class → position at `time`.
+    InverseArrangement(RawTimeRead),
+    /// Exclusion: net flux of colors ≥ `threshold` through the bond `(bond, bond + 1)` by `time`.
+    Current(RawCurrentRead),
+    /// Exclusion: whether two classes are in the opposite order at `time` than at 0.
+    Swapped(RawPairRead),
+    /// Exclusion: whether one of two classes ever attempted a jump onto the other by `time`.
+    Attempted(RawPairRead),
+}
+
+/// `row:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawRowRead {
+    /// The row below the edges read.
+    pub y: i64,
+    /// Colors or positions.
+    #[serde(rename = "as")]
+    pub kind: RawSetKind,
+}
+
+/// `column:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawColumnRead {
+    /// The column left of the edges read.
+    pub x: i64,
+    /// Colors or positions.
+    #[serde(rename = "as")]
+    pub kind: RawSetKind,
+}
+
+/// `height:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawHeightRead {
+    /// Column (six-vertex) or site (exclusion).
+    pub x: i64,
+    /// Row (six-vertex only).
+    #[serde(default)]
+    pub y: Option<i64>,
+    /// Time (exclusion only).
+    #[serde(default)]
+    pub time: Option<f64>,
+}
+
+/// `window:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawWindowRead {
+    /// First site.
+    pub from: i64,
+    /// Last site.
+    pub to: i64,
+    /// Time.
+    pub time: f64,
+    /// Colors or positions.
+    #[serde(rename = "as")]
+    pub kind: RawSetKind,
+}
+
+/// `position:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawPositionRead {
+    /// The class followed (in the model's own numbers).
+    pub class: i64,
+    /// Time.
+    pub time: f64,
+}
+
+/// Keys of reads that only need a time.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawTimeRead {
+    /// Time.
+    pub time: f64,
+}
+
+/// `current:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawCurrentRead {
+    /// Left site of the bond.
+    pub bond: i64,
+    /// Time.
+    pub time: f64,
+}
+
+/// `swapped:` and `attempted:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawPairRead {
+    /// The two classes (in the model's own numbers).
+    pub classes: [i64; 2],
+    /// Time.
+    pub time: f64,
+}
+
+/// One claim.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawClaim {
+    /// Identifier, unique in the file.
+    pub id: String,
+    /// The claim in words, for the report.
+    #[serde(default)]
+    pub says: Option<String>,
+    /// Exact mode for this claim (overrides the scenario's).
+    #[serde(default)]
+    pub exact: Option<RawExactMode>,
+    /// Two observables have the same law.
+    #[serde(default)]
+    pub same_law: Option<[String; 2]>,
+    /// A scalar observable follows a reference law.
+    #[serde(default)]
+    pub law_of: Option<RawLawOf>,
+    /// An event's probability.
+    #[serde(default)]
+    pub probability: Option<RawProbability>,
+    /// No claim: the estimated law with intervals.
+    #[serde(default)]
+    pub describe: Option<String>,
+}
+
+/// `law-of:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawLawOf {
+    /// The scalar observable.
+    pub observable: String,
+    /// The reference law.
+    pub reference: RawReference,
+}
+
+/// Reference laws.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawReference {
+    /// Uniform on `[a, b]`.
+    Uniform([f64; 2]),
+    /// Normal with mean and standard deviation.
+    Normal(RawNormal),
+    /// The integer law with tail `P(X ≥ x) = E[occupation of site x]` read from another observable
+    /// (an exclusion `window` read as positions).
+    TailFromProfile(String),
+}
+
+/// `normal:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawNormal {
+    /// Mean.
+    pub mean: f64,
+    /// Standard deviation.
+    pub sd: f64,
+}
+
+/// `probability:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawProbability {
+    /// The event observable.
+    pub event: String,
+    /// A stated value to test against.
+    #[serde(default)]
+    pub equals: Option<f64>,
+}

@@ -1,0 +1,212 @@
+//! The machine-readable result of a run: the content of `result.json`, schema `motley-result/1`.
+//!
+//! Field meanings are documented in `docs/result-schema.md` and checked against
+//! `docs/result.schema.json` by the tests. Only the fields under `timing` may differ between two runs
+//! of one scenario and seed; everything else is bit-identical whatever the thread count or shard split.
+
+use serde::{Deserialize, Serialize};
+
+/// The schema identifier written into every result.
+pub const SCHEMA: &str = "motley-result/1";
+
+/// A whole result.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RunResult {
+    /// Always [`SCHEMA`].
+    pub schema: String,
+    /// motley's version.
+    pub motley_version: String,
+    /// The git commit motley was built from (`unknown` outside a checkout).
+    pub git_commit: String,
+    /// The scenario.
+    pub scenario: ScenarioInfo,
+    /// Wall time and threads: the only fields allowed to differ between reruns.
+    pub timing: Timing,
+    /// One entry per claim, in file order.
+    pub claims: Vec<ClaimResult>,
+}
+
+/// What was run.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ScenarioInfo {
+    /// Scenario name.
+    pub name: String,
+    /// Title.
+    pub title: String,
+    /// Description.
+    pub description: String,
+    /// SHA-256 of the scenario file.
+    pub hash: String,
+    /// Seed.
+    pub seed: u64,
+    /// Samples per side.
+    pub samples: u64,
+    /// Significance level.
+    pub alpha: f64,
+    /// Power at which detectable differences are quoted.
+    pub power: f64,
+    /// Shards merged into this result (1 for a single run).
+    pub shards: u64,
+}
+
+/// Timing (excluded from reproducibility comparisons).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Timing {
+    /// Wall-clock seconds of the run (summed over shards for a merge).
+    pub wall_seconds: f64,
+    /// Worker threads used (largest over shards).
+    pub threads: usize,
+    /// Samples per second reached, all sides together.
+    pub samples_per_second: f64,
+}
+
+/// The result of one claim.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ClaimResult {
+    /// Claim id.
+    pub id: String,
+    /// `same-law`, `law-of`, `probability` or `describe`.
+    pub kind: String,
+    /// The claim in words.
+    pub says: String,
+    /// Observables involved, by name.
+    pub observables: Vec<String>,
+    /// `exact` or `monte-carlo`.
+    pub decided_by: String,
+    /// Whether the claim is rejected at `alpha` (always false for `describe`).
+    pub rejected: bool,
+    /// One sentence: the verdict and what it means.
+    pub verdict: String,
+    /// Samples per side (0 when decided exactly).
+    pub samples: u64,
+    /// The tests run, with the claim-level Holm adjustment applied across them.
+    pub tests: Vec<TestResult>,
+    /// Effect size and sensitivity, when the claim compares laws.
+    pub effect: Option<Effect>,
+    /// Exact decision, when exact mode decided the claim.
+    pub exact: Option<ExactResult>,
+    /// Estimated laws and curves, for the report's tables and figures.
+    pub estimates: Estimates,
+}
+
+/// One hypothesis test.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct TestResult {
+    /// Name, e.g. `chi-square on the joint law`.
+    pub name: String,
+    /// Test statistic.
+    pub statistic: f64,
+    /// Degrees of freedom, where the test has them.
+    pub dof: Option<f64>,
+    /// p-value of this test alone.
+    pub p_value: f64,
+    /// p-value after the claim-level Holm adjustment across its tests.
+    pub adjusted_p_value: f64,
+    /// Whether this test rejects at `alpha` after adjustment.
+    pub rejected: bool,
+    /// Caveats: pooling done, conservativeness for discrete data, and the like.
+    pub note: String,
+}
+
+/// Effect size and what the run could have seen.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Effect {
+    /// What the numbers measure, e.g. `total variation` or `probability gap`.
+    pub measure: String,
+    /// Point estimate.
+    pub estimate: f64,
+    /// Upper confidence bound at level `1 − alpha`.
+    pub upper_bound: f64,
+    /// Smallest difference detectable at `alpha` with the scenario's power.
+    pub detectable: f64,
+}
+
+/// An exact decision.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ExactResult {
+    /// Exact total variation between the two laws (same-law), or between the law and the reference.
+    pub total_variation: f64,
+    /// Exact probability (probability claims).
+    pub probability: Option<f64>,
+    /// Outcomes in the larger of the laws.
+    pub outcomes: usize,
+    /// Bound on the numerical error of the exact computation.
+    pub error_bound: f64,
+}
+
+/// Estimates for tables and figures.
+#[derive(Debug, Clone, PartialEq, Default, Serialize, Deserialize)]
+pub struct Estimates {
+    /// Per-element inclusion probabilities (sets), one series per side.
+    pub inclusion: Vec<Series>,
+    /// Law of the set size, one series per side.
+    pub size_law: Vec<Series>,
+    /// Empirical CDFs (numbers), one series per side.
+    pub ecdf: Vec<Series>,
+    /// Reference curve (CDF or tail) for `law-of`.
+    pub reference: Option<Series>,
+    /// Event probabilities, one per side.
+    pub probabilities: Vec<Interval>,
+    /// The most frequent outcomes and their frequencies, per side (at most 20).
+    pub top_outcomes: Vec<Vec<Outcome>>,
+    /// Mean and standard deviation of numbers, per side.
+    pub moments: Vec<Moments>,
+}
+
+/// A curve with a confidence band: `x`, estimate, lower and upper bound.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Series {
+    /// Legend label.
+    pub label: String,
+    /// Abscissae.
+    pub x: Vec<f64>,
+    /// Estimates.
+    pub y: Vec<f64>,
+    /// Lower band.
+    pub lower: Vec<f64>,
+    /// Upper band.
+    pub upper: Vec<f64>,
+}
+
+/// An estimated probability with its interval.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Interval {
+    /// Label.
+    pub label: String,
+    /// Successes.
+    pub successes: u64,
+    /// Trials.
+    pub trials: u64,
+    /// Point estimate (exact value when decided exactly).
+    pub estimate: f64,
+    /// Wilson interval, lower.
+    pub wilson_lower: f64,
+    /// Wilson interval, upper.
+    pub wilson_upper: f64,
+    /// Clopper–Pearson interval, lower.
+    pub exact_lower: f64,
+    /// Clopper–Pearson interval, upper.
+    pub exact_upper: f64,
+}
+
+/// One outcome of a categorical law.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Outcome {
+    /// The outcome, written as in the report (e.g. `{1, 3}`).
+    pub value: String,
+    /// Its estimated (or exact) probability.
+    pub probability: f64,
+}
+
+/// Sample moments.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Moments {
+    /// Label.
+    pub label: String,
+    /// Count.
+    pub count: u64,
+    /// Mean.
+    pub mean: f64,
+    /// Standard deviation.
+    pub sd: f64,
+}

@@ -1,0 +1,316 @@
+//! The validated scenario: every number checked, every name resolved, colors in motley's own order.
+//!
+//! Colors here always follow the engines' convention (0 empty, larger stronger). A model written with
+//! `strength: smaller-wins` has had its numbers reversed by [`motley_colorblind::Relabel`] during
+//! validation; [`ModelSpec::to_user`] turns engine colors back into the file's numbers for reports.
+
+use motley_colorblind::{Color, IndexMap, Relabel};
+
+/// Exact mode of a claim.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, serde::Serialize, serde::Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum ExactMode {
+    /// Exact laws when the system is small enough.
+    Auto,
+    /// Exact laws, or refuse the scenario.
+    On,
+    /// Monte Carlo only.
+    Off,
+}
+
+/// A probability or rate, with its rational form when the file gave one.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Number {
+    /// The value.
+    pub value: f64,
+    /// `(numerator, denominator)` when written as `"p/q"` or as an integer.
+    pub rational: Option<(i64, i64)>,
+}
+
+/// The whole validated scenario.
+#[derive(Debug, Clone)]
+pub struct Scenario {
+    /// Report folder name.
+    pub name: String,
+    /// Title.
+    pub title: String,
+    /// Free text.
+    pub description: String,
+    /// Scenario seed.
+    pub seed: u64,
+    /// Samples per side.
+    pub samples: u64,
+    /// Significance level.
+    pub alpha: f64,
+    /// Power used to quote the detectable difference.
+    pub power: f64,
+    /// Models in file order.
+    pub models: Vec<ModelSpec>,
+    /// Observables in file order.
+    pub observables: Vec<ObservableSpec>,
+    /// Claims in file order.
+    pub claims: Vec<ClaimSpec>,
+    /// SHA-256 of the file's bytes, hex.
+    pub hash: String,
+}
+
+/// A named model.
+#[derive(Debug, Clone)]
+pub struct ModelSpec {
+    /// Name in the file.
+    pub name: String,
+    /// The model.
+    pub kind: ModelKind,
+    /// The reversal applied to the file's numbers, if `strength: smaller-wins`.
+    pub relabel: Option<Relabel>,
+    /// Largest color present (engine order).
+    pub max_color: Color,
+}
+
+impl ModelSpec {
+    /// An engine color in the file's own numbers.
+    pub fn to_user(&self, c: Color) -> Color {
+        match self.relabel {
+            Some(r) => r.map(c).unwrap_or(c),
+            None => c,
+        }
+    }
+}
+
+/// The models motley knows.
+#[derive(Debug, Clone)]
+pub enum ModelKind {
+    /// Colored stochastic six-vertex model on a rectangle.
+    SixVertex(SixVertexSpec),
+    /// Multi-species ASEP.
+    Exclusion(ExclusionSpec),
+}
+
+impl ModelKind {
+    /// `six-vertex` or `exclusion`.
+    pub fn name(&self) -> &'static str {
+        match self {
+            ModelKind::SixVertex(_) => "six-vertex",
+            ModelKind::Exclusion(_) => "exclusion",
+        }
+    }
+}
+
+/// A six-vertex rectangle.
+#[derive(Debug, Clone)]
+pub struct SixVertexSpec {
+    /// Columns.
+    pub width: usize,
+    /// Rows.
+    pub height: usize,
+    /// Straight-on probability of the stronger color from below.
+    pub b1: Number,
+    /// Straight-on probability of the stronger color from the left.
+    pub b2: Number,
+    /// Left boundary, row 1 first.
+    pub left: BoundarySpec,
+    /// Bottom boundary, column 1 first.
+    pub bottom: BoundarySpec,
+}
+
+/// Boundary data along one side.
+#[derive(Debug, Clone, PartialEq)]
+pub enum BoundarySpec {
+    /// Given colors (engine order).
+    Fixed(Vec<Color>),
+    /// Independent occupation with probability `density`; occupied edge `k` gets `colors[k]`.
+    Bernoulli {
+        /// Occupation probability.
+        density: f64,
+        /// Color edge `k` gets when occupied (engine order).
+        colors: Vec<Color>,
+    },
+}
+
+impl BoundarySpec {
+    /// Colors an edge may carry (for ranges).
+    pub fn colors(&self) -> &[Color] {
+        match self {
+            BoundarySpec::Fixed(c) => c,
+            BoundarySpec::Bernoulli { colors, .. } => colors,
+        }
+    }
+}
+
+/// The lattice of an exclusion process.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LatticeSpec {
+    /// Sites `1..=n`.
+    Segment(usize),
+    /// Sites `1..=n` in a circle.
+    Ring(usize),
+    /// ℤ.
+    Line,
+}
+
+/// Initial data of an exclusion process (engine colors).
+#[derive(Debug, Clone, PartialEq)]
+pub enum InitialSpec {
+    /// Site `k` of `1..=n` holds `colors[k − 1]`.
+    Sites(Vec<Color>),
+    /// ℤ: `left` on sites `< at`, `block` on `at..at+len`, `right` beyond.
+    Line {
+        /// Far-left color.
+        left: Color,
+        /// Far-right color.
+        right: Color,
+        /// Site of the block's first entry.
+        at: i64,
+        /// Block colors.
+        block: Vec<Color>,
+    },
+}
+
+/// An exclusion process.
+#[derive(Debug, Clone)]
+pub struct ExclusionSpec {
+    /// Lattice.
+    pub lattice: LatticeSpec,
+    /// Right-swap rate of a stronger particle.
+    pub p: Number,
+    /// Left-swap rate of a stronger particle.
+    pub q: Number,
+    /// Initial data.
+    pub initial: InitialSpec,
+    /// Whether the initial colors on a segment or ring are all distinct and nonzero.
+    pub packed: bool,
+    /// The read-out times, increasing, without repeats.
+    pub times: Vec<f64>,
+}
+
+/// What kind of value an observable yields per sample.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ValueKind {
+    /// A subset of `{1, …, universe}`.
+    Set {
+        /// Universe size.
+        universe: usize,
+    },
+    /// A number (`integer`: its values are integers, so KS is conservative on it).
+    Scalar {
+        /// Integer-valued.
+        integer: bool,
+    },
+    /// True or false.
+    Event,
+    /// A sequence of `len` colors (an arrangement).
+    Sequence {
+        /// Length.
+        len: usize,
+    },
+}
+
+impl ValueKind {
+    /// Short name for messages.
+    pub fn describe(&self) -> String {
+        match self {
+            ValueKind::Set { universe } => format!("a set in {{1, …, {universe}}}"),
+            ValueKind::Scalar { .. } => "a number".into(),
+            ValueKind::Event => "an event".into(),
+            ValueKind::Sequence { len } => format!("a sequence of {len} classes"),
+        }
+    }
+}
+
+/// Whether a set is read as colors or positions.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SetRead {
+    /// Colors present (universe: colors `1..=max_color`, in the file's numbers).
+    Colors,
+    /// Occupied positions (universe: the edges or sites read).
+    Positions,
+}
+
+/// A read-out, resolved (engine colors, 1-based coordinates).
+#[derive(Debug, Clone, PartialEq)]
+pub enum ReadSpec {
+    /// Six-vertex: edges leaving the top.
+    Top(SetRead),
+    /// Six-vertex: edges leaving the right side.
+    Right(SetRead),
+    /// Six-vertex: vertical edges above row `y` (0: the bottom boundary).
+    Row(usize, SetRead),
+    /// Six-vertex: horizontal edges right of column `x` (0: the left boundary).
+    Column(usize, SetRead),
+    /// Six-vertex height function `H(x, y)`.
+    Height6v(usize, usize),
+    /// Six-vertex: the column where a color leaves the top (0 when it leaves through the right).
+    ExitColumn(Color),
+    /// Exclusion: sites `from..=to` at time index `t`.
+    Window(i64, i64, usize, SetRead),
+    /// Exclusion: site of a color at time index `t`.
+    Position(Color, usize),
+    /// Exclusion: the arrangement (user classes by site) at time index `t`.
+    Arrangement(usize),
+    /// Exclusion: the inverse arrangement at time index `t`.
+    InverseArrangement(usize),
+    /// Exclusion: net current of colors ≥ threshold through bond `(b, b+1)` by time index `t`.
+    Current(i64, usize),
+    /// Exclusion: height at site `x` (paths at sites `> x`, colors ≥ threshold) at time index `t`.
+    HeightExcl(i64, usize),
+    /// Exclusion: two colors in the opposite order at time index `t`.
+    Swapped(Color, Color, usize),
+    /// Exclusion: one of two colors attempted a jump onto the other by time index `t`.
+    Attempted(Color, Color, usize),
+}
+
+/// An observable.
+#[derive(Debug, Clone)]
+pub struct ObservableSpec {
+    /// Name.
+    pub name: String,
+    /// Index of its model.
+    pub model: usize,
+    /// The read-out.
+    pub read: ReadSpec,
+    /// Threshold projection (engine color), for position reads, heights and currents.
+    pub threshold: Option<Color>,
+    /// Index map applied to sets.
+    pub map: IndexMap,
+    /// Factor applied to scalars.
+    pub scale: f64,
+    /// Kind of value.
+    pub kind: ValueKind,
+}
+
+/// A reference law.
+#[derive(Debug, Clone, PartialEq)]
+pub enum ReferenceSpec {
+    /// Uniform on `[a, b]`.
+    Uniform(f64, f64),
+    /// Normal.
+    Normal(f64, f64),
+    /// Tail read from a profile observable: `P(X ≥ x) = E[1{x occupied}]`.
+    TailFromProfile(usize),
+}
+
+/// What a claim says.
+#[derive(Debug, Clone, PartialEq)]
+pub enum ClaimKind {
+    /// Two observables have the same law.
+    SameLaw(usize, usize),
+    /// A scalar observable follows a reference law.
+    LawOf(usize, ReferenceSpec),
+    /// An event's probability, optionally equal to a value.
+    Probability(usize, Option<f64>),
+    /// No claim: describe the law.
+    Describe(usize),
+}
+
+/// A claim.
+#[derive(Debug, Clone)]
+pub struct ClaimSpec {
+    /// Identifier.
+    pub id: String,
+    /// The claim in words.
+    pub says: String,
+    /// What it says.
+    pub kind: ClaimKind,
+    /// Exact mode.
+    pub exact: ExactMode,
+}

@@ -1,0 +1,629 @@
+//! Raw scenario → validated [`Scenario`]: every range checked, every name resolved.
+//!
+//! Each check names the key path, what was found and what is allowed; positions come from
+//! [`Locations`]. Checks run in file order and the first failure is returned, so a corpus of bad files
+//! can pin the exact first line of each message.
+
+use indexmap::IndexMap;
+use motley_colorblind::{Color, IndexMap as SetMap, Relabel};
+
+use crate::error::ScenarioError;
+use crate::locate::Locations;
+use crate::raw::*;
+use crate::scenario::*;
+use crate::suggest::closest;
+
+/// Largest width, height, lattice size or window accepted (memory is checked separately).
+pub const MAX_SIDE: i64 = 1 << 20;
+/// Largest color number accepted.
+pub const MAX_COLOR: i64 = 1 << 20;
+
+/// Context of one validation: the file name and the key positions.
+pub(crate) struct Checker<'a> {
+    pub file: &'a str,
+    pub locations: &'a Locations,
+}
+
+impl Checker<'_> {
+    pub(crate) fn error(&self, path: &str, message: impl Into<String>) -> ScenarioError {
+        let pos = self.locations.find(path);
+        ScenarioError {
+            file: self.file.to_string(),
+            line: pos.map(|p| p.line),
+            column: pos.map(|p| p.column),
+            path: path.to_string(),
+            message: message.into(),
+            hint: None,
+        }
+    }
+
+    fn error_hint(&self, path: &str, message: impl Into<String>, hint: Option<String>) -> ScenarioError {
+        let mut e = self.error(path, message);
+        e.hint = hint;
+        e
+    }
+
+    pub(crate) fn int_in(&self, path: &str, v: i64, lo: i64, hi: i64) -> Result<i64, ScenarioError> {
+        if v < lo || v > hi {
+            return Err(self.error(path, format!("must be an integer in [{lo}, {hi}], got {v}")));
+        }
+        Ok(v)
+    }
+
+    pub(crate) fn finite(&self, path: &str, v: f64) -> Result<f64, ScenarioError> {
+        if !v.is_finite() {
+            return Err(self.error(path, format!("must be a finite number, got {v}")));
+        }
+        Ok(v)
+    }
+
+    fn probability(&self, path: &str, n: &RawNumber) -> Result<Number, ScenarioError> {
+        let n = self.number(path, n)?;
+        if !(0.0..=1.0).contains(&n.value) {
+            return Err(self.error(path, format!("must be a probability in [0, 1], got {}", n.value)));
+        }
+        Ok(n)
+    }
+
+    fn rate(&self, path: &str, n: &RawNumber) -> Result<Number, ScenarioError> {
+        let n = self.number(path, n)?;
+        if n.value < 0.0 || n.value > 1e6 {
+            return Err(self.error(path, format!("must be a rate in [0, 1e6], got {}", n.value)));
+        }
+        Ok(n)
+    }
+
+    fn number(&self, path: &str, n: &RawNumber) -> Result<Number, ScenarioError> {
+        match n {
+            RawNumber::Float(v) => Ok(Number {
+                value: self.finite(path, *v)?,
+                rational: None,
+            }),
+            RawNumber::Text(t) => {
+                let bad = || {
+                    self.error(
+                        path,
+                        format!("must be a number or a fraction like \"1/3\", got \"{t}\""),
+                    )
+                };
+                let (num, den) = match t.split_once('/') {
+                    Some((a, b)) => (a.trim().parse::<i64>(), b.trim().parse::<i64>()),
+                    None => (t.trim().parse::<i64>(), Ok(1)),
+                };
+                let (num, den) = (num.map_err(|_| bad())?, den.map_err(|_| bad())?);
+                if den <= 0 {
+                    return Err(self.error(
+                        path,
+                        format!("fraction \"{t}\" must have a positive denominator"),
+                    ));
+                }
+                Ok(Number {
+                    value: num as f64 / den as f64,
+                    rational: Some((num, den)),
+                })
+            }
+        }
+    }
+
+    fn time(&self, path: &str, t: f64) -> Result<f64, ScenarioError> {
+        if !t.is_finite() || t <= 0.0 || t > 1e9 {
+            return Err(self.error(path, format!("time must be a number in (0, 1e9], got {t}")));
+        }
+        Ok(t)
+    }
+
+    fn name(&self, path: &str, n: &str) -> Result<(), ScenarioError> {
+        let ok = !n.is_empty()
+            && n.len() <= 64
+            && n.chars().all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_');
+        if !ok {
+            return Err(self.error(
+                path,
+                format!("names use letters, digits, `-` and `_` (1 to 64 of them), got \"{n}\""),
+            ));
+        }
+        Ok(())
+    }
+
+    fn unknown_name(&self, path: &str, what: &str, name: &str, known: &[&str]) -> ScenarioError {
+        let hint = closest(name, known.iter().copied()).map(|c| format!("did you mean `{c}`?"));
+        let list = if known.is_empty() {
+            "none is defined".to_string()
+        } else {
+            format!("known: {}", known.join(", "))
+        };
+        self.error_hint(path, format!("no {what} named \"{name}\" ({list})"), hint)
+    }
+}
+
+/// Validates `raw` (read from `file`, located by `locations`); `hash` is the file's SHA-256.
+///
+/// # Errors
+/// The first problem found, as a located [`ScenarioError`].
+pub fn validate(
+    raw: &RawScenario,
+    file: &str,
+    locations: &Locations,
+    hash: String,
+) -> Result<Scenario, ScenarioError> {
+    let ck = Checker { file, locations };
+    ck.name("name", &raw.name)?;
+    if raw.samples == 0 || raw.samples > 1u64 << 40 {
+        return Err(ck.error("samples", format!("must be an integer in [1, 2^40], got {}", raw.samples)));
+    }
+    let alpha = raw.alpha.unwrap_or(0.01);
+    if !(alpha.is_finite() && alpha > 0.0 && alpha < 0.5) {
+        return Err(ck.error("alpha", format!("must lie in (0, 0.5), got {alpha}")));
+    }
+    let power = raw.power.unwrap_or(0.8);
+    if !(power.is_finite() && power > 0.0 && power < 1.0) {
+        return Err(ck.error("power", format!("must lie in (0, 1), got {power}")));
+    }
+    let exact = mode(raw.exact.unwrap_or(RawExactMode::Auto));
+    if raw.models.is_empty() {
+        return Err(ck.error("models", "at least one model is needed"));
+    }
+
+    // Times are collected per model from the observables before the models are built.
+    let mut times: Vec<Vec<f64>> = vec![Vec::new(); raw.models.len()];
+    for (oname, o) in &raw.observables {
+        if let Some(m) = raw.models.get_index_of(&o.of) {
+            if let Some(t) = read_time(&o.read) {
+                let path = format!("observables.{oname}.read");
+                times[m].push(ck.time(&path, t)?);
+            }
+        }
+    }
+
+    let mut models = Vec::new();
+    for (i, (name, m)) in raw.models.iter().enumerate() {
+        let path = format!("models.{name}");
+        ck.name(&path, name)?;
+        models.push(model(&ck, &path, name, m, std::mem::take(&mut times[i]))?);
+    }
+    let model_names: Vec<&str> = raw.models.keys().map(|s| s.as_str()).collect();
+
+    let mut observables = Vec::new();
+    for (name, o) in &raw.observables {
+        let path = format!("observables.{name}");
+        ck.name(&path, name)?;
+        let Some(mi) = raw.models.get_index_of(&o.of) else {
+            return Err(ck.unknown_name(&format!("{path}.of"), "model", &o.of, &model_names));
+        };
+        observables.push(crate::resolve_read::observable(&ck, &path, name, mi, &models[mi], o)?);
+    }
+    let obs_names: Vec<&str> = raw.observables.keys().map(|s| s.as_str()).collect();
+
+    let mut claims: Vec<ClaimSpec> = Vec::new();
+    let mut ids = IndexMap::new();
+    for (i, c) in raw.claims.iter().enumerate() {
+        let path = format!("claims[{i}]");
+        ck.name(&format!("{path}.id"), &c.id)?;
+        if let Some(prev) = ids.insert(c.id.clone(), i) {
+            return Err(ck.error(
+                &format!("{path}.id"),
+                format!("claim id \"{}\" is already used by claims[{prev}]", c.id),
+            ));
+        }
+        claims.push(claim(&ck, &path, c, &observables, &obs_names, exact)?);
+    }
+    if claims.is_empty() {
+        return Err(ck.error("claims", "at least one claim is needed (use `describe:` for no claim)"));
+    }
+
+    Ok(Scenario {
+        name: raw.name.clone(),
+        title: raw.title.clone().unwrap_or_else(|| raw.name.clone()),
+        description: raw.description.clone().unwrap_or_default(),
+        seed: raw.seed,
+        samples: raw.samples,
+        alpha,
+        power,
+        models,
+        observables,
+        claims,
+        hash,
+    })
+}
+
+fn mode(m: RawExactMode) -> ExactMode {
+    match m {
+        RawExactMode::Auto => ExactMode::Auto,
+        RawExactMode::On => ExactMode::On,
+        RawExactMode::Off => ExactMode::Off,
+    }
+}
+
+fn read_time(r: &RawRead) -> Option<f64> {
+    match r {
+        RawRead::Height(h) => h.time,
+        RawRead::Window(w) => Some(w.time),
+        RawRead::Position(p) => Some(p.time),
+        RawRead::Arrangement(t) | RawRead::InverseArrangement(t) => Some(t.time),
+        RawRead::Current(c) => Some(c.time),
+        RawRead::Swapped(p) | RawRead::Attempted(p) => Some(p.time),
+        _ => None,
+    }
+}
+
+/// Numbers of a model block, in the file's order, to find the class count of a reversal.
+fn model_numbers(m: &RawModel) -> Vec<i64> {
+    let mut v = Vec::new();
+    let mut boundary = |b: &RawBoundary, len: i64| match b {
+        RawBoundary::Rainbow => v.push(len.max(0)),
+        RawBoundary::Empty => {}
+        RawBoundary::Step(c) => v.push(*c),
+        RawBoundary::List(l) => v.extend(l),
+        RawBoundary::Blocks(b) => v.extend([b.color, b.rest]),
+        RawBoundary::Bernoulli(b) => match b.color {
+            RawColorRule::Fixed(c) => v.push(c),
+            RawColorRule::Named(_) => v.push(len.max(0)),
+        },
+    };
+    match m {
+        RawModel::SixVertex(s) => {
+            boundary(&s.left, s.height);
+            boundary(&s.bottom, s.width);
+        }
+        RawModel::Exclusion(e) => match &e.initial {
+            RawInitial::Packed => match e.lattice {
+                RawLattice::Segment(n) | RawLattice::Ring(n) => v.push(n.max(0)),
+                RawLattice::Line => {}
+            },
+            RawInitial::List(l) => v.extend(l),
+            RawInitial::Step(s) => {
+                v.extend([s.left, s.right]);
+                v.extend(&s.block);
+            }
+        },
+    }
+    v
+}
+
+fn model(
+    ck: &Checker,
+    path: &str,
+    name: &str,
+    m: &RawModel,
+    mut times: Vec<f64>,
+) -> Result<ModelSpec, ScenarioError> {
+    let strength = match m {
+        RawModel::SixVertex(s) => s.strength,
+        RawModel::Exclusion(e) => e.strength,
+    };
+    let relabel = match strength {
+        Some(RawStrength::SmallerWins) => {
+            let k = model_numbers(m).into_iter().max().unwrap_or(0).clamp(1, MAX_COLOR);
+            Some(Relabel::reverse(k as u32).expect("k ≥ 1"))
+        }
+        _ => None,
+    };
+    let color = |p: &str, c: i64| -> Result<Color, ScenarioError> {
+        let c = ck.int_in(p, c, 0, MAX_COLOR)? as Color;
+        Ok(match relabel {
+            Some(r) => r.map(c).expect("within the class count"),
+            None => c,
+        })
+    };
+    let kind = match m {
+        RawModel::SixVertex(s) => {
+            let p = format!("{path}.six-vertex");
+            let width = ck.int_in(&format!("{p}.width"), s.width, 1, MAX_SIDE)? as usize;
+            let height = ck.int_in(&format!("{p}.height"), s.height, 1, MAX_SIDE)? as usize;
+            let b1 = ck.probability(&format!("{p}.b1"), &s.b1)?;
+            let b2 = ck.probability(&format!("{p}.b2"), &s.b2)?;
+            let left = boundary(ck, &format!("{p}.left"), &s.left, height, &color)?;
+            let bottom = boundary(ck, &format!("{p}.bottom"), &s.bottom, width, &color)?;
+            if !times.is_empty() {
+                times.clear();
+            }
+            ModelKind::SixVertex(SixVertexSpec {
+                width,
+                height,
+                b1,
+                b2,
+                left,
+                bottom,
+            })
+        }
+        RawModel::Exclusion(e) => {
+            let p = format!("{path}.exclusion");
+            let lattice = match e.lattice {
+                RawLattice::Segment(n) => {
+                    LatticeSpec::Segment(ck.int_in(&format!("{p}.lattice.segment"), n, 2, MAX_SIDE)? as usize)
+                }
+                RawLattice::Ring(n) => {
+                    LatticeSpec::Ring(ck.int_in(&format!("{p}.lattice.ring"), n, 2, MAX_SIDE)? as usize)
+                }
+                RawLattice::Line => LatticeSpec::Line,
+            };
+            let pr = ck.rate(&format!("{p}.p"), &e.p)?;
+            let qr = ck.rate(&format!("{p}.q"), &e.q)?;
+            if pr.value + qr.value <= 0.0 {
+                return Err(ck.error(&format!("{p}.q"), "p and q cannot both be 0: nothing would move"));
+            }
+            let ip = format!("{p}.initial");
+            let initial = match (&e.initial, lattice) {
+                (RawInitial::Packed, LatticeSpec::Segment(n) | LatticeSpec::Ring(n)) => {
+                    let raw: Vec<i64> = (1..=n as i64).collect();
+                    InitialSpec::Sites(
+                        raw.iter()
+                            .map(|&c| color(&ip, c))
+                            .collect::<Result<_, _>>()?,
+                    )
+                }
+                (RawInitial::List(l), LatticeSpec::Segment(n) | LatticeSpec::Ring(n)) => {
+                    if l.len() != n {
+                        return Err(ck.error(
+                            &format!("{ip}.list"),
+                            format!("needs one color per site: {n} entries, got {}", l.len()),
+                        ));
+                    }
+                    InitialSpec::Sites(
+                        l.iter()
+                            .enumerate()
+                            .map(|(i, &c)| color(&format!("{ip}.list[{i}]"), c))
+                            .collect::<Result<_, _>>()?,
+                    )
+                }
+                (RawInitial::Step(s), LatticeSpec::Line) => {
+                    if s.block.len() > 1 << 16 {
+                        return Err(ck.error(&format!("{ip}.step.block"), "at most 65536 entries"));
+                    }
+                    let at = ck.int_in(&format!("{ip}.step.at"), s.at.unwrap_or(1), -MAX_SIDE, MAX_SIDE)?;
+                    InitialSpec::Line {
+                        left: color(&format!("{ip}.step.left"), s.left)?,
+                        right: color(&format!("{ip}.step.right"), s.right)?,
+                        at,
+                        block: s
+                            .block
+                            .iter()
+                            .enumerate()
+                            .map(|(i, &c)| color(&format!("{ip}.step.block[{i}]"), c))
+                            .collect::<Result<_, _>>()?,
+                    }
+                }
+                (RawInitial::Step(_), _) => {
+                    return Err(ck.error(&ip, "`step` initial data is for `lattice: line`; use `packed` or `list` on a segment or ring"))
+                }
+                (_, LatticeSpec::Line) => {
+                    return Err(ck.error(&ip, "on `lattice: line` the initial data must be `step: {left, right, at, block}`"))
+                }
+            };
+            let packed = match &initial {
+                InitialSpec::Sites(s) => {
+                    let mut v = s.clone();
+                    v.sort_unstable();
+                    v.dedup();
+                    v.len() == s.len() && !s.contains(&0)
+                }
+                InitialSpec::Line { .. } => false,
+            };
+            times.sort_by(f64::total_cmp);
+            times.dedup();
+            ModelKind::Exclusion(ExclusionSpec {
+                lattice,
+                p: pr,
+                q: qr,
+                initial,
+                packed,
+                times,
+            })
+        }
+    };
+    let max_color = match &kind {
+        ModelKind::SixVertex(s) => s
+            .left
+            .colors()
+            .iter()
+            .chain(s.bottom.colors())
+            .copied()
+            .max()
+            .unwrap_or(0),
+        ModelKind::Exclusion(e) => match &e.initial {
+            InitialSpec::Sites(s) => s.iter().copied().max().unwrap_or(0),
+            InitialSpec::Line {
+                left, right, block, ..
+            } => block.iter().copied().chain([*left, *right]).max().unwrap_or(0),
+        },
+    };
+    Ok(ModelSpec {
+        name: name.to_string(),
+        kind,
+        relabel,
+        max_color,
+    })
+}
+
+fn boundary(
+    ck: &Checker,
+    path: &str,
+    b: &RawBoundary,
+    len: usize,
+    color: &dyn Fn(&str, i64) -> Result<Color, ScenarioError>,
+) -> Result<BoundarySpec, ScenarioError> {
+    Ok(match b {
+        RawBoundary::Rainbow => BoundarySpec::Fixed(
+            (1..=len as i64)
+                .map(|k| color(path, k))
+                .collect::<Result<_, _>>()?,
+        ),
+        RawBoundary::Empty => BoundarySpec::Fixed(vec![0; len]),
+        RawBoundary::Step(c) => BoundarySpec::Fixed(vec![color(&format!("{path}.step"), *c)?; len]),
+        RawBoundary::List(l) => {
+            if l.len() != len {
+                return Err(ck.error(
+                    &format!("{path}.list"),
+                    format!("needs one color per edge: {len} entries, got {}", l.len()),
+                ));
+            }
+            BoundarySpec::Fixed(
+                l.iter()
+                    .enumerate()
+                    .map(|(i, &c)| color(&format!("{path}.list[{i}]"), c))
+                    .collect::<Result<_, _>>()?,
+            )
+        }
+        RawBoundary::Blocks(bl) => {
+            let p = format!("{path}.blocks");
+            let first = ck.int_in(&format!("{p}.first"), bl.first, 0, len as i64)? as usize;
+            let a = color(&format!("{p}.color"), bl.color)?;
+            let r = color(&format!("{p}.rest"), bl.rest)?;
+            BoundarySpec::Fixed((0..len).map(|k| if k < first { a } else { r }).collect())
+        }
+        RawBoundary::Bernoulli(be) => {
+            let p = format!("{path}.bernoulli");
+            let d = ck.finite(&format!("{p}.density"), be.density)?;
+            if !(0.0..=1.0).contains(&d) {
+                return Err(ck.error(&format!("{p}.density"), format!("must be a probability in [0, 1], got {d}")));
+            }
+            let colors = match &be.color {
+                RawColorRule::Fixed(c) => {
+                    let c = color(&format!("{p}.color"), *c)?;
+                    if c == 0 {
+                        return Err(ck.error(&format!("{p}.color"), "an occupied edge needs a color ≥ 1, got 0"));
+                    }
+                    vec![c; len]
+                }
+                RawColorRule::Named(n) if n == "rainbow" => (1..=len as i64)
+                    .map(|k| color(&format!("{p}.color"), k))
+                    .collect::<Result<_, _>>()?,
+                RawColorRule::Named(n) => {
+                    return Err(ck.error(
+                        &format!("{p}.color"),
+                        format!("must be a color number or `rainbow`, got \"{n}\""),
+                    ))
+                }
+            };
+            BoundarySpec::Bernoulli { density: d, colors }
+        }
+    })
+}
+
+fn claim(
+    ck: &Checker,
+    path: &str,
+    c: &RawClaim,
+    obs: &[ObservableSpec],
+    names: &[&str],
+    default_mode: ExactMode,
+) -> Result<ClaimSpec, ScenarioError> {
+    let given = [
+        c.same_law.is_some(),
+        c.law_of.is_some(),
+        c.probability.is_some(),
+        c.describe.is_some(),
+    ]
+    .iter()
+    .filter(|b| **b)
+    .count();
+    if given != 1 {
+        return Err(ck.error(
+            path,
+            format!("a claim needs exactly one of `same-law`, `law-of`, `probability`, `describe`; found {given}"),
+        ));
+    }
+    let find = |p: &str, n: &str| -> Result<usize, ScenarioError> {
+        names
+            .iter()
+            .position(|k| *k == n)
+            .ok_or_else(|| ck.unknown_name(p, "observable", n, names))
+    };
+    let kind = if let Some([a, b]) = &c.same_law {
+        let ia = find(&format!("{path}.same-law[0]"), a)?;
+        let ib = find(&format!("{path}.same-law[1]"), b)?;
+        let (ka, kb) = (obs[ia].kind, obs[ib].kind);
+        let compatible = match (ka, kb) {
+            (ValueKind::Scalar { .. }, ValueKind::Scalar { .. }) => true,
+            (x, y) => x == y,
+        };
+        if !compatible {
+            return Err(ck.error(
+                &format!("{path}.same-law"),
+                format!(
+                    "cannot compare observables of different kinds: \"{a}\" is {}, \"{b}\" is {}",
+                    ka.describe(),
+                    kb.describe()
+                ),
+            ));
+        }
+        if ia == ib {
+            return Err(ck.error(&format!("{path}.same-law"), format!("compares \"{a}\" with itself")));
+        }
+        ClaimKind::SameLaw(ia, ib)
+    } else if let Some(l) = &c.law_of {
+        let p = format!("{path}.law-of");
+        let i = find(&format!("{p}.observable"), &l.observable)?;
+        if !matches!(obs[i].kind, ValueKind::Scalar { .. }) {
+            return Err(ck.error(
+                &format!("{p}.observable"),
+                format!("`law-of` needs a number, but \"{}\" is {}", l.observable, obs[i].kind.describe()),
+            ));
+        }
+        let rp = format!("{p}.reference");
+        let reference = match &l.reference {
+            RawReference::Uniform([a, b]) => {
+                let (a, b) = (ck.finite(&rp, *a)?, ck.finite(&rp, *b)?);
+                if a >= b {
+                    return Err(ck.error(&format!("{rp}.uniform"), format!("needs a < b, got [{a}, {b}]")));
+                }
+                ReferenceSpec::Uniform(a, b)
+            }
+            RawReference::Normal(n) => {
+                let m = ck.finite(&format!("{rp}.normal.mean"), n.mean)?;
+                let s = ck.finite(&format!("{rp}.normal.sd"), n.sd)?;
+                if s <= 0.0 {
+                    return Err(ck.error(&format!("{rp}.normal.sd"), format!("must be > 0, got {s}")));
+                }
+                ReferenceSpec::Normal(m, s)
+            }
+            RawReference::TailFromProfile(name) => {
+                let j = find(&format!("{rp}.tail-from-profile"), name)?;
+                let ok = matches!(obs[j].read, ReadSpec::Window(_, _, _, SetRead::Positions));
+                if !ok {
+                    return Err(ck.error(
+                        &format!("{rp}.tail-from-profile"),
+                        format!("\"{name}\" must be an exclusion `window` read `as: positions`"),
+                    ));
+                }
+                if !matches!(obs[i].kind, ValueKind::Scalar { integer: true }) {
+                    return Err(ck.error(
+                        &format!("{p}.observable"),
+                        format!("a tail from a profile needs an integer position, but \"{}\" is scaled", l.observable),
+                    ));
+                }
+                ReferenceSpec::TailFromProfile(j)
+            }
+        };
+        ClaimKind::LawOf(i, reference)
+    } else if let Some(pr) = &c.probability {
+        let p = format!("{path}.probability");
+        let i = find(&format!("{p}.event"), &pr.event)?;
+        if obs[i].kind != ValueKind::Event {
+            return Err(ck.error(
+                &format!("{p}.event"),
+                format!("`probability` needs an event, but \"{}\" is {}", pr.event, obs[i].kind.describe()),
+            ));
+        }
+        if let Some(v) = pr.equals {
+            if !(v.is_finite() && (0.0..=1.0).contains(&v)) {
+                return Err(ck.error(&format!("{p}.equals"), format!("must be a probability in [0, 1], got {v}")));
+            }
+        }
+        ClaimKind::Probability(i, pr.equals)
+    } else {
+        let name = c.describe.as_deref().unwrap_or_default();
+        ClaimKind::Describe(find(&format!("{path}.describe"), name)?)
+    };
+    Ok(ClaimSpec {
+        id: c.id.clone(),
+        says: c.says.clone().unwrap_or_default(),
+        kind,
+        exact: c.exact.map(mode).unwrap_or(default_mode),
+    })
+}
+
+/// Whether `map` sends every subset of `{1..from}` into `{1..to}`.
+pub(crate) fn map_fits(map: &SetMap, from: usize, to: usize) -> bool {
+    map.fits(from, to)
+}
