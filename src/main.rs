@@ -1,1 +1,27 @@
-fn main() {}
+//! The `motley` command: scenario in, report out. Glue only: arguments, loading, running, printing
+//! errors with documented exit codes (see `exit.rs`).
+
+mod cli;
+mod examples;
+mod exit;
+mod input;
+mod progress;
+mod run_cmd;
+mod check_cmd;
+mod merge_cmd;
+
+use clap::Parser;
+
+fn main() {
+    let args = cli::Cli::parse();
+    let outcome = match args.command {
+        cli::Command::Run(a) => run_cmd::run(a),
+        cli::Command::Check(a) => check_cmd::check(a),
+        cli::Command::Merge(a) => merge_cmd::merge(a),
+        cli::Command::Examples(a) => examples::command(a),
+    };
+    if let Err(f) = outcome {
+        eprintln!("motley: {}", f.message());
+        std::process::exit(f.code());
+    }
+}

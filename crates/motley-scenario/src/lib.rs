@@ -32,16 +32,32 @@
 //! ```
 #![deny(missing_docs)]
 
+pub mod accumulate;
+pub mod cost;
 pub mod error;
-pub mod result;
+pub mod estimate;
+pub mod evaluate;
+mod exact_decide;
+mod exclusion_unit;
+pub mod finish;
 pub mod load;
 pub mod locate;
+pub mod picture;
+pub mod plan;
 pub mod raw;
+mod read_set;
 mod resolve_read;
+pub mod result;
+pub mod run;
 pub mod scenario;
+mod six_vertex_unit;
 mod suggest;
+pub mod unit;
 pub mod validate;
 
 pub use error::ScenarioError;
 pub use load::load_str;
 pub use scenario::Scenario;
+
+/// motley's version, recorded in every result and partial.
+pub const VERSION: &str = env!("CARGO_PKG_VERSION");

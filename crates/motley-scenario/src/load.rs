@@ -53,7 +53,15 @@ pub fn load_str(text: &str, file: &str) -> Result<Scenario, ScenarioError> {
     )
     .map_err(|e| serde_error(e, file, text))?;
     let hash = hex(&Sha256::digest(text.as_bytes()));
-    validate(&raw, file, &locations, hash)
+    let scenario = validate(&raw, file, &locations, hash)?;
+    crate::plan::plan(&scenario, file).map_err(|mut e| {
+        if let Some(p) = locations.find(&e.path) {
+            e.line = Some(p.line);
+            e.column = Some(p.column);
+        }
+        e
+    })?;
+    Ok(scenario)
 }
 
 fn hex(bytes: &[u8]) -> String {

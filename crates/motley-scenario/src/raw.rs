@@ -396,6 +396,12 @@ pub struct RawClaim {
     /// No claim: the estimated law with intervals.
     #[serde(default)]
     pub describe: Option<String>,
+    /// With `describe` of a number: a reference law drawn beside it (shown, not tested).
+    #[serde(default)]
+    pub reference: Option<RawReference>,
+    /// With `describe` of a number: a limiting value quoted beside the measured mean.
+    #[serde(default)]
+    pub limit: Option<f64>,
 }
 
 /// `law-of:` keys.

@@ -298,8 +298,8 @@ pub enum ClaimKind {
     LawOf(usize, ReferenceSpec),
     /// An event's probability, optionally equal to a value.
     Probability(usize, Option<f64>),
-    /// No claim: describe the law.
-    Describe(usize),
+    /// No claim: describe the law, optionally beside a reference law or a limiting value.
+    Describe(usize, Option<ReferenceSpec>, Option<f64>),
 }
 
 /// A claim.

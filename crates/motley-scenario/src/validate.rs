@@ -560,8 +560,74 @@ fn claim(
                 format!("`law-of` needs a number, but \"{}\" is {}", l.observable, obs[i].kind.describe()),
             ));
         }
-        let rp = format!("{p}.reference");
-        let reference = match &l.reference {
+        let reference = reference(ck, &format!("{p}.reference"), &l.reference, i, obs, &find)?;
+        ClaimKind::LawOf(i, reference)
+    } else if let Some(pr) = &c.probability {
+        let p = format!("{path}.probability");
+        let i = find(&format!("{p}.event"), &pr.event)?;
+        if obs[i].kind != ValueKind::Event {
+            return Err(ck.error(
+                &format!("{p}.event"),
+                format!("`probability` needs an event, but \"{}\" is {}", pr.event, obs[i].kind.describe()),
+            ));
+        }
+        if let Some(v) = pr.equals {
+            if !(v.is_finite() && (0.0..=1.0).contains(&v)) {
+                return Err(ck.error(&format!("{p}.equals"), format!("must be a probability in [0, 1], got {v}")));
+            }
+        }
+        ClaimKind::Probability(i, pr.equals)
+    } else {
+        let name = c.describe.as_deref().unwrap_or_default();
+        let i = find(&format!("{path}.describe"), name)?;
+        let scalar = matches!(obs[i].kind, ValueKind::Scalar { .. });
+        if (c.reference.is_some() || c.limit.is_some()) && !scalar {
+            let key = if c.reference.is_some() { "reference" } else { "limit" };
+            return Err(ck.error(
+                &format!("{path}.{key}"),
+                format!("`{key}` goes with `describe` of a number, but \"{name}\" is {}", obs[i].kind.describe()),
+            ));
+        }
+        let reference = match &c.reference {
+            None => None,
+            Some(r) => Some(reference(ck, &format!("{path}.reference"), r, i, obs, &find)?),
+        };
+        if let Some(l) = c.limit {
+            ck.finite(&format!("{path}.limit"), l)?;
+        }
+        ClaimKind::Describe(i, reference, c.limit)
+    };
+    if !matches!(kind, ClaimKind::Describe(..)) {
+        if c.reference.is_some() {
+            return Err(ck.error(&format!("{path}.reference"), "`reference` at claim level goes with `describe`; `law-of` has its own"));
+        }
+        if c.limit.is_some() {
+            return Err(ck.error(&format!("{path}.limit"), "`limit` goes with `describe` only"));
+        }
+    }
+    Ok(ClaimSpec {
+        id: c.id.clone(),
+        says: c.says.clone().unwrap_or_default(),
+        kind,
+        exact: c.exact.map(mode).unwrap_or(default_mode),
+    })
+}
+
+/// Whether `map` sends every subset of `{1..from}` into `{1..to}`.
+pub(crate) fn map_fits(map: &SetMap, from: usize, to: usize) -> bool {
+    map.fits(from, to)
+}
+
+fn reference(
+    ck: &Checker,
+    rp: &str,
+    raw: &RawReference,
+    i: usize,
+    obs: &[ObservableSpec],
+    find: &dyn Fn(&str, &str) -> Result<usize, ScenarioError>,
+) -> Result<ReferenceSpec, ScenarioError> {
+    let p = rp.trim_end_matches(".reference");
+        let r = match raw {
             RawReference::Uniform([a, b]) => {
                 let (a, b) = (ck.finite(&rp, *a)?, ck.finite(&rp, *b)?);
                 if a >= b {
@@ -589,41 +655,11 @@ fn claim(
                 if !matches!(obs[i].kind, ValueKind::Scalar { integer: true }) {
                     return Err(ck.error(
                         &format!("{p}.observable"),
-                        format!("a tail from a profile needs an integer position, but \"{}\" is scaled", l.observable),
+                        format!("a tail from a profile needs an integer position, but \"{}\" is scaled", obs[i].name),
                     ));
                 }
                 ReferenceSpec::TailFromProfile(j)
             }
         };
-        ClaimKind::LawOf(i, reference)
-    } else if let Some(pr) = &c.probability {
-        let p = format!("{path}.probability");
-        let i = find(&format!("{p}.event"), &pr.event)?;
-        if obs[i].kind != ValueKind::Event {
-            return Err(ck.error(
-                &format!("{p}.event"),
-                format!("`probability` needs an event, but \"{}\" is {}", pr.event, obs[i].kind.describe()),
-            ));
-        }
-        if let Some(v) = pr.equals {
-            if !(v.is_finite() && (0.0..=1.0).contains(&v)) {
-                return Err(ck.error(&format!("{p}.equals"), format!("must be a probability in [0, 1], got {v}")));
-            }
-        }
-        ClaimKind::Probability(i, pr.equals)
-    } else {
-        let name = c.describe.as_deref().unwrap_or_default();
-        ClaimKind::Describe(find(&format!("{path}.describe"), name)?)
-    };
-    Ok(ClaimSpec {
-        id: c.id.clone(),
-        says: c.says.clone().unwrap_or_default(),
-        kind,
-        exact: c.exact.map(mode).unwrap_or(default_mode),
-    })
-}
-
-/// Whether `map` sends every subset of `{1..from}` into `{1..to}`.
-pub(crate) fn map_fits(map: &SetMap, from: usize, to: usize) -> bool {
-    map.fits(from, to)
+    Ok(r)
 }

@@ -1,0 +1,81 @@
+//! Multi-species ASEP and TASEP in continuous time on a segment, a ring and the whole line, with
+//! read-outs at chosen times and exact laws of small systems.
+//!
+//! # Color convention
+//! Colors are `u32` as everywhere in motley ([`motley_colorblind::Color`]): `0` is a hole and a
+//! **larger color is stronger**. The usual class convention (class 1 strongest, holes weakest) is
+//! offered by the `from_classes` constructors and [`FiniteSystem::packed`], which go through
+//! [`motley_colorblind::Relabel::reverse`]: with `K` classes, class `k` is color `K + 1 − k`. There is no
+//! second code path; the permutation read-out reports classes the same way.
+//!
+//! # Dynamics
+//! On each bond `(x, x+1)` the two colors swap at rate `p` if the left one is stronger and at rate
+//! `q` if the right one is stronger; equal colors never swap ([`Rates`]; TASEP is `q = 0`). Lattices:
+//! the segment `{1, …, n}` (bonds `1..n−1`), the ring `Z/nZ` (sites `1..=n`, `n` bonds, bond `n` is
+//! `(n, 1)`) — see [`FiniteSystem`] and [`FiniteProcess`] — and the whole line `Z` with constant
+//! colors far left and far right around an explicit block ([`LineData`], [`LineProcess`]), simulated
+//! exactly on a lazily grown active region (no window, no truncation error).
+//!
+//! # Reproducibility
+//! Sample `i` under seed `s` draws only from [`motley_stream::sample_stream`]`(s, i, ·)`; the stream
+//! layouts are documented on [`FiniteProcess`] (module `finite_process`: stream 0 Poisson counts per
+//! read-out interval, stream 1 attempt words) and [`LineProcess`] (stream 0: gaps and attempts). On
+//! the segment and ring no random choice looks at the state, so one seed drives the colored and every
+//! colorblind run and projections commute with the dynamics pathwise. Results never depend on thread
+//! count: parallelise over sample indices. Value-stability tests freeze the layout.
+//!
+//! # Exact laws
+//! [`ExactSolver`] enumerates arrangements of a segment or ring (≤ [`MAX_EXACT_SITES`] sites) and
+//! computes the law at time `t` by uniformization, reporting the bound on the neglected Poisson tail;
+//! [`Law::pushforward`] maps it to any read-out.
+//!
+//! # Examples
+//! ```
+//! use motley_exclusion::{
+//!     ExactSolver, FiniteLattice, FiniteProcess, FiniteSystem, Rates, Reading, Readout, DEFAULT_TAIL,
+//! };
+//!
+//! // Packed start on {1, 2, 3}: class x at site x, class 1 strongest.
+//! let system = FiniteSystem::packed(FiniteLattice::Segment, 3)?;
+//! let process = FiniteProcess::new(system, Rates::new(1.0, 0.5)?);
+//! let plan = process.plan(&[0.5, 2.0], vec![Readout::Permutation])?;
+//! let readings = process.sample(42, 0, &plan);
+//! let Reading::Classes(classes) = &readings.values[1][0] else { unreachable!() };
+//! let mut sorted = classes.clone();
+//! sorted.sort();
+//! assert_eq!(sorted, vec![1, 2, 3]);
+//!
+//! // The exact law at t = 2: probabilities sum to 1 within the reported bound.
+//! let law = ExactSolver::new(&process)?.law_at(2.0, DEFAULT_TAIL)?;
+//! let total: f64 = law.entries().iter().map(|e| e.1).sum();
+//! assert!((total - 1.0).abs() < 1e-12 && law.error_bound() < 1e-15);
+//! # Ok::<(), motley_exclusion::ExclusionError>(())
+//! ```
+//!
+//! # Errors
+//! Every constructor and plan check returns [`ExclusionError`]; samplers do not fail.
+#![deny(missing_docs)]
+
+mod error;
+mod exact;
+mod finite_process;
+mod finite_system;
+mod kernel;
+mod law;
+mod line_data;
+mod line_process;
+mod observer;
+mod rates;
+mod readout;
+mod words;
+
+pub use error::ExclusionError;
+pub use exact::{ExactSolver, DEFAULT_TAIL, MAX_EXACT_SITES, MAX_EXACT_STATES};
+pub use finite_process::{FiniteProcess, ATTEMPT_STREAM, COUNT_STREAM};
+pub use finite_system::{FiniteLattice, FiniteSystem};
+pub use law::{total_variation, Law};
+pub use line_data::LineData;
+pub use line_process::{LineProcess, LINE_STREAM};
+pub use motley_colorblind::Color;
+pub use rates::Rates;
+pub use readout::{Reading, Readings, Readout, ReadoutPlan, MAX_WINDOW};

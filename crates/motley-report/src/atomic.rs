@@ -1,0 +1,348 @@
+//! Atomic placement on the file system: single files (temp file, fsync, rename) and whole folders
+//! (a hidden staging sibling, renamed into place once complete).
+//!
+//! # Design
+//! Everything is written next to its final name, in the same folder, so the last step is a `rename`
+//! within one file system, which POSIX makes atomic: a reader (or a later run) sees the old state or the
+//! complete new one, never a half-written file or folder. A process killed half-way leaves only a hidden
+//! `.{name}.partial-{pid}-{n}` (or `.tmp-`) sibling; names carry the process id and a per-process counter,
+//! so a leftover never collides with a later run, and staging sweeps away leftovers of its own folder
+//! whose process no longer exists (on Linux, where `/proc` tells).
+//!
+//! Replacing an existing folder takes two renames: the old folder is moved aside to
+//! `.{name}.old-{pid}-{n}`, the new one moved in, then the old one deleted. Between the two renames the
+//! final name is briefly absent, never half-written. Only a folder that looks like a report (it holds a
+//! `result.json`, or is empty) is ever replaced, so a mistaken `--out $HOME --overwrite` deletes nothing.
+
+use std::fs;
+use std::io::Write;
+use std::path::{Path, PathBuf};
+use std::sync::atomic::{AtomicU64, Ordering};
+
+use serde::Serialize;
+
+use crate::error::ReportError;
+
+/// Distinguishes temporary names made by one process.
+static COUNTER: AtomicU64 = AtomicU64::new(0);
+
+/// Marker inside a temporary folder name: `.{name}.partial-{pid}-{n}`.
+const PARTIAL: &str = "partial";
+/// Marker of an old folder moved aside while being replaced: `.{name}.old-{pid}-{n}`.
+const OLD: &str = "old";
+/// Marker of a temporary file: `.{name}.tmp-{pid}-{n}`.
+const TMP: &str = "tmp";
+
+/// Writes `bytes` to `path` atomically: a temporary sibling is written, flushed to disk and renamed
+/// over `path`. Readers see the old content or the new, never a mixture.
+///
+/// # Errors
+/// [`ReportError::Io`] naming the file when the folder is missing or not writable, or the rename fails;
+/// the temporary file is removed in that case.
+pub fn write_file_atomic(path: &Path, bytes: &[u8]) -> Result<(), ReportError> {
+    let (parent, name) = split(path)?;
+    let temp = temp_name(&parent, &name, TMP);
+    let outcome = write_synced(&temp, bytes).and_then(|()| {
+        fs::rename(&temp, path).map_err(|e| ReportError::io("rename into place", path, e))
+    });
+    if outcome.is_err() {
+        let _ = fs::remove_file(&temp);
+    }
+    outcome?;
+    sync_dir(&parent);
+    Ok(())
+}
+
+/// Writes `value` as pretty-printed JSON with a trailing newline to `path`, atomically (see
+/// [`write_file_atomic`]). Used for `result.json` and for the command-line tool's checkpoints and shard
+/// results.
+///
+/// # Errors
+/// [`ReportError::Json`] when the value cannot be serialized (e.g. a map with non-string keys),
+/// [`ReportError::Io`] as for [`write_file_atomic`].
+pub fn write_json_atomic<T: Serialize + ?Sized>(path: &Path, value: &T) -> Result<(), ReportError> {
+    let text = json_text(path, value)?;
+    write_file_atomic(path, text.as_bytes())
+}
+
+/// Pretty JSON with a trailing newline.
+pub(crate) fn json_text<T: Serialize + ?Sized>(path: &Path, value: &T) -> Result<String, ReportError> {
+    let mut text = serde_json::to_string_pretty(value).map_err(|source| ReportError::Json {
+        path: path.to_path_buf(),
+        source,
+    })?;
+    text.push('\n');
+    Ok(text)
+}
+
+/// Creates (or truncates) `path`, writes `bytes` and flushes them to disk.
+pub(crate) fn write_synced(path: &Path, bytes: &[u8]) -> Result<(), ReportError> {
+    let mut file = fs::File::create(path).map_err(|e| ReportError::io("create file", path, e))?;
+    file.write_all(bytes)
+        .map_err(|e| ReportError::io("write file", path, e))?;
+    file.sync_all()
+        .map_err(|e| ReportError::io("flush file to disk", path, e))
+}
+
+/// Flushes a folder's entries to disk (best effort: not every platform can open a folder).
+pub(crate) fn sync_dir(dir: &Path) {
+    #[cfg(unix)]
+    if let Ok(d) = fs::File::open(dir) {
+        let _ = d.sync_all();
+    }
+    #[cfg(not(unix))]
+    let _ = dir;
+}
+
+/// The parent folder (`.` for a bare name) and the final component of `path`.
+fn split(path: &Path) -> Result<(PathBuf, String), ReportError> {
+    let name = path
+        .file_name()
+        .and_then(|n| n.to_str())
+        .filter(|n| !n.is_empty())
+        .ok_or_else(|| ReportError::NoFolderName {
+            path: path.to_path_buf(),
+        })?
+        .to_string();
+    let parent = match path.parent() {
+        Some(p) if !p.as_os_str().is_empty() => p.to_path_buf(),
+        _ => PathBuf::from("."),
+    };
+    Ok((parent, name))
+}
+
+/// `{parent}/.{name}.{marker}-{pid}-{n}`, unique within this process.
+fn temp_name(parent: &Path, name: &str, marker: &str) -> PathBuf {
+    let n = COUNTER.fetch_add(1, Ordering::Relaxed);
+    parent.join(format!(".{name}.{marker}-{}-{n}", std::process::id()))
+}
+
+/// The process id in a temporary name made by [`temp_name`] for `name` with `marker`, if it is one.
+fn temp_owner(entry: &str, name: &str, marker: &str) -> Option<u32> {
+    let rest = entry.strip_prefix(&format!(".{name}.{marker}-"))?;
+    let (pid, n) = rest.split_once('-')?;
+    n.parse::<u64>().ok()?;
+    pid.parse().ok()
+}
+
+/// Whether process `pid` is known to be gone. Only Linux's `/proc` can tell; elsewhere nothing is
+/// known to be gone, and leftovers stay (harmless: they never collide with new names).
+fn process_gone(pid: u32) -> bool {
+    if pid == std::process::id() {
+        return false;
+    }
+    let proc_root = Path::new("/proc/self");
+    proc_root.exists() && !Path::new(&format!("/proc/{pid}")).exists()
+}
+
+/// Whether an existing folder may be replaced: it holds `result.json` or is empty.
+fn looks_like_report(dir: &Path) -> Result<bool, ReportError> {
+    if dir.join("result.json").is_file() {
+        return Ok(true);
+    }
+    let mut entries = fs::read_dir(dir).map_err(|e| ReportError::io("read folder", dir, e))?;
+    Ok(entries.next().is_none())
+}
+
+/// A hidden staging folder that becomes the final folder on [`Staging::publish`]; dropped
+/// unpublished (an error or a panic while writing), it is deleted.
+#[derive(Debug)]
+pub(crate) struct Staging {
+    /// The staging folder, written into.
+    temp: PathBuf,
+    /// The final folder.
+    target: PathBuf,
+    /// The parent of both.
+    parent: PathBuf,
+    /// The final component of `target`.
+    name: String,
+    /// Whether `temp` has been renamed away.
+    published: bool,
+}
+
+impl Staging {
+    /// Checks that `target` may be written (absent, or replaceable with `overwrite`), sweeps leftovers
+    /// of dead processes and creates a fresh staging folder beside it.
+    pub(crate) fn begin(target: &Path, overwrite: bool) -> Result<Self, ReportError> {
+        let (parent, name) = split(target)?;
+        check_target(target, overwrite)?;
+        fs::create_dir_all(&parent).map_err(|e| ReportError::io("create folder", &parent, e))?;
+        sweep_leftovers(&parent, &name);
+        loop {
+            let temp = temp_name(&parent, &name, PARTIAL);
+            match fs::create_dir(&temp) {
+                Ok(()) => {
+                    return Ok(Staging {
+                        temp,
+                        target: target.to_path_buf(),
+                        parent,
+                        name,
+                        published: false,
+                    })
+                }
+                // A leftover of an earlier process that had our pid: take the next number.
+                Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => continue,
+                Err(e) => return Err(ReportError::io("create staging folder", &temp, e)),
+            }
+        }
+    }
+
+    /// The staging folder to write into.
+    pub(crate) fn path(&self) -> &Path {
+        &self.temp
+    }
+
+    /// Moves the complete staging folder to the final name, replacing an old report if `overwrite`.
+    pub(crate) fn publish(mut self, overwrite: bool) -> Result<PathBuf, ReportError> {
+        sync_dir(&self.temp);
+        // Checked again: another process may have written the report meanwhile.
+        let exists = check_target(&self.target, overwrite)?;
+        if exists {
+            let aside = temp_name(&self.parent, &self.name, OLD);
+            fs::rename(&self.target, &aside)
+                .map_err(|e| ReportError::io("move the old report aside", &self.target, e))?;
+            if let Err(e) = fs::rename(&self.temp, &self.target) {
+                // Put the old report back; the staging folder is removed by `drop`.
+                let _ = fs::rename(&aside, &self.target);
+                return Err(ReportError::io("rename into place", &self.target, e));
+            }
+            self.published = true;
+            sync_dir(&self.parent);
+            // The new report is in place; failing to delete the old copy loses nothing, and the
+            // next run sweeps it.
+            let _ = fs::remove_dir_all(&aside);
+        } else {
+            fs::rename(&self.temp, &self.target)
+                .map_err(|e| ReportError::io("rename into place", &self.target, e))?;
+            self.published = true;
+            sync_dir(&self.parent);
+        }
+        Ok(self.target.clone())
+    }
+}
+
+impl Drop for Staging {
+    fn drop(&mut self) {
+        if !self.published {
+            let _ = fs::remove_dir_all(&self.temp);
+        }
+    }
+}
+
+/// Whether `target` exists, failing when it exists and may not be replaced.
+fn check_target(target: &Path, overwrite: bool) -> Result<bool, ReportError> {
+    match fs::symlink_metadata(target) {
+        Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(false),
+        Err(e) => Err(ReportError::io("inspect", target, e)),
+        Ok(_) if !overwrite => Err(ReportError::Exists {
+            path: target.to_path_buf(),
+        }),
+        Ok(meta) if meta.is_dir() && looks_like_report(target)? => Ok(true),
+        Ok(_) => Err(ReportError::NotAReport {
+            path: target.to_path_buf(),
+        }),
+    }
+}
+
+/// Deletes staging and moved-aside folders of `name` left by processes that no longer exist.
+fn sweep_leftovers(parent: &Path, name: &str) {
+    let Ok(entries) = fs::read_dir(parent) else {
+        return;
+    };
+    for entry in entries.flatten() {
+        let file_name = entry.file_name();
+        let Some(entry_name) = file_name.to_str() else {
+            continue;
+        };
+        let owner = temp_owner(entry_name, name, PARTIAL).or_else(|| temp_owner(entry_name, name, OLD));
+        if let Some(pid) = owner {
+            if process_gone(pid) {
+                let _ = fs::remove_dir_all(entry.path());
+            }
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn temp_owner_parses_only_our_names() {
+        assert_eq!(temp_owner(".run.partial-123-4", "run", PARTIAL), Some(123));
+        assert_eq!(temp_owner(".run.partial-123", "run", PARTIAL), None);
+        assert_eq!(temp_owner(".run2.partial-123-4", "run", PARTIAL), None);
+        assert_eq!(temp_owner(".run.old-9-0", "run", OLD), Some(9));
+        assert_eq!(temp_owner("run", "run", PARTIAL), None);
+    }
+
+    #[test]
+    fn split_handles_bare_names_and_rejects_roots() {
+        let (p, n) = split(Path::new("report")).unwrap();
+        assert_eq!((p, n.as_str()), (PathBuf::from("."), "report"));
+        let (p, n) = split(Path::new("a/b/c")).unwrap();
+        assert_eq!((p, n.as_str()), (PathBuf::from("a/b"), "c"));
+        assert!(matches!(
+            split(Path::new("/")),
+            Err(ReportError::NoFolderName { .. })
+        ));
+    }
+
+    #[test]
+    fn json_file_is_replaced_whole_and_ends_with_newline() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("state.json");
+        write_json_atomic(&path, &vec![1, 2, 3]).unwrap();
+        write_json_atomic(&path, &vec![4]).unwrap();
+        let text = fs::read_to_string(&path).unwrap();
+        assert_eq!(text, "[\n  4\n]\n");
+        // No temporary file is left beside it.
+        let names: Vec<_> = fs::read_dir(dir.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name())
+            .collect();
+        assert_eq!(names, vec![std::ffi::OsString::from("state.json")]);
+    }
+
+    #[test]
+    fn atomic_file_into_missing_folder_fails_naming_it_and_leaves_nothing() {
+        let dir = tempfile::tempdir().unwrap();
+        let path = dir.path().join("missing").join("x.json");
+        let err = write_file_atomic(&path, b"{}").unwrap_err();
+        assert!(err.to_string().contains("missing"), "{err}");
+        assert!(!dir.path().join("missing").exists());
+    }
+
+    #[test]
+    fn dropped_staging_is_removed() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("rep");
+        let staging = Staging::begin(&target, false).unwrap();
+        let temp = staging.path().to_path_buf();
+        assert!(temp.is_dir());
+        drop(staging);
+        assert!(!temp.exists());
+        assert!(!target.exists());
+    }
+
+    #[test]
+    fn sweeps_leftovers_of_dead_processes_only() {
+        if !Path::new("/proc/self").exists() {
+            return; // Nothing can be known to be dead without /proc.
+        }
+        let dir = tempfile::tempdir().unwrap();
+        // pid 4194304 exceeds Linux's largest pid (2^22), so no such process exists.
+        let dead = dir.path().join(".rep.partial-4194304-0");
+        let mine = dir
+            .path()
+            .join(format!(".rep.partial-{}-999999", std::process::id()));
+        let other = dir.path().join(".other.partial-4194304-0");
+        for d in [&dead, &mine, &other] {
+            fs::create_dir(d).unwrap();
+        }
+        sweep_leftovers(dir.path(), "rep");
+        assert!(!dead.exists());
+        assert!(mine.exists());
+        assert!(other.exists());
+    }
+}

@@ -1,0 +1,469 @@
+//! `summary.md`, the page a person reads first: what was claimed, what the run decided and how
+//! strongly, the numbers behind it, the figures, how to reproduce it, and what a run of this kind can
+//! and cannot show.
+//!
+//! # Design
+//! Verdict words are fixed so that a reader (or `grep`) can find them: `not rejected at α = …`,
+//! `REJECTED at α = …`, `holds exactly (…)`, `REJECTED exactly (…)`, `described (no claim tested)`.
+//! The sentence the run itself gives (`ClaimResult::verdict`) follows on the next line. All tables are
+//! plain GitHub-flavoured Markdown; each claim section has an explicit anchor so the overview table
+//! can link to it whatever characters its id holds.
+
+use std::fmt::Write as _;
+
+use motley_scenario::result::{ClaimResult, RunResult};
+
+use crate::figures::Figure;
+use crate::format::{cell, code, duration, num, p_value, shell_line, short};
+use crate::picture_draw::DrawnPicture;
+use crate::report::ReportExtras;
+
+/// A bound written compactly: `0`, `1e-13`, `2.35e-14`.
+fn bound(x: f64) -> String {
+    if x == 0.0 {
+        return "0".into();
+    }
+    let s = format!("{x:e}");
+    if s.len() <= 8 {
+        s
+    } else {
+        format!("{x:.2e}")
+    }
+}
+
+/// Whether `claim` was decided by exact enumeration.
+fn is_exact(claim: &ClaimResult) -> bool {
+    claim.decided_by == "exact" && claim.exact.is_some()
+}
+
+/// Whether `claim` only describes (tests nothing).
+fn is_describe(claim: &ClaimResult) -> bool {
+    claim.kind == "describe"
+}
+
+/// The verdict of one claim in fixed words, e.g. `not rejected at α = 0.01` or
+/// `holds exactly (total variation 0 up to 1e-13)`.
+pub fn verdict_line(claim: &ClaimResult, alpha: f64) -> String {
+    let a = short(alpha);
+    if is_describe(claim) {
+        return if is_exact(claim) {
+            "described exactly (no claim tested)".into()
+        } else {
+            "described (no claim tested)".into()
+        };
+    }
+    if let (true, Some(ex)) = (is_exact(claim), &claim.exact) {
+        let tv = ex.total_variation;
+        let err = bound(ex.error_bound);
+        return match (claim.rejected, tv <= ex.error_bound) {
+            (false, true) => format!("holds exactly (total variation 0 up to {err})"),
+            (false, false) => format!(
+                "holds exactly within the claim's tolerance (total variation {}, numerical error ≤ {err})",
+                num(tv)
+            ),
+            (true, _) => format!(
+                "REJECTED exactly (total variation {}, numerical error ≤ {err})",
+                num(tv)
+            ),
+        };
+    }
+    if claim.rejected {
+        format!("REJECTED at α = {a}")
+    } else {
+        format!("not rejected at α = {a}")
+    }
+}
+
+/// Human name of how a claim was decided.
+fn decided(claim: &ClaimResult) -> &str {
+    match claim.decided_by.as_str() {
+        "exact" => "exact",
+        "monte-carlo" => "Monte Carlo",
+        other => other,
+    }
+}
+
+/// The smallest Holm-adjusted p-value of a claim's tests, if it has tests.
+fn smallest_adjusted(claim: &ClaimResult) -> Option<f64> {
+    claim
+        .tests
+        .iter()
+        .map(|t| t.adjusted_p_value)
+        .filter(|p| !p.is_nan())
+        .reduce(f64::min)
+}
+
+/// The anchor of a claim's section.
+fn anchor(stem: &str) -> String {
+    format!("claim-{stem}")
+}
+
+/// Label of side `i` of a claim for tables.
+fn side_name(claim: &ClaimResult, own: &str, i: usize) -> String {
+    if !own.trim().is_empty() {
+        own.to_string()
+    } else if let Some(o) = claim.observables.get(i) {
+        o.clone()
+    } else {
+        format!("side {}", i + 1)
+    }
+}
+
+/// Renders the whole summary.
+pub(crate) fn render(
+    result: &RunResult,
+    extras: &ReportExtras,
+    stems: &[String],
+    figures: &[Vec<Figure>],
+    picture: Option<&DrawnPicture>,
+) -> String {
+    let sc = &result.scenario;
+    let alpha = sc.alpha;
+    let mut s = String::new();
+    let title = if sc.title.trim().is_empty() {
+        sc.name.as_str()
+    } else {
+        sc.title.as_str()
+    };
+    let _ = writeln!(s, "# {}\n", title.trim());
+    if !sc.description.trim().is_empty() {
+        let _ = writeln!(s, "{}\n", sc.description.trim());
+    }
+    let rejected = result.claims.iter().filter(|c| c.rejected).count();
+    let _ = writeln!(
+        s,
+        "Scenario {} · {} claim{} · {} rejected at α = {} · motley {} · schema `{}`\n",
+        code(&sc.name),
+        result.claims.len(),
+        if result.claims.len() == 1 { "" } else { "s" },
+        rejected,
+        short(alpha),
+        result.motley_version,
+        result.schema
+    );
+
+    overview(&mut s, result, stems);
+    for (i, claim) in result.claims.iter().enumerate() {
+        claim_section(&mut s, result, claim, &stems[i], &figures[i]);
+    }
+    if let Some(p) = picture {
+        let _ = writeln!(s, "## Sample configuration\n");
+        for f in &p.files {
+            let _ = writeln!(s, "![sample configuration]({f})\n");
+        }
+        let _ = writeln!(s, "{}\n", p.caption);
+    }
+    reproduce(&mut s, result, extras);
+    limits(&mut s, result);
+    s
+}
+
+/// The table of claims with their verdicts.
+fn overview(s: &mut String, result: &RunResult, stems: &[String]) {
+    let _ = writeln!(s, "## Claims\n");
+    if result.claims.is_empty() {
+        let _ = writeln!(s, "This scenario states no claims.\n");
+        return;
+    }
+    let _ = writeln!(
+        s,
+        "| Claim | Kind | Decided by | Verdict | Smallest Holm-adjusted p | Effect (upper bound) |"
+    );
+    let _ = writeln!(s, "|---|---|---|---|---|---|");
+    for (claim, stem) in result.claims.iter().zip(stems) {
+        let p = smallest_adjusted(claim).map_or("—".into(), p_value);
+        let effect = match (&claim.exact, &claim.effect) {
+            (Some(ex), _) if is_exact(claim) => format!("total variation {}", num(ex.total_variation)),
+            (_, Some(e)) => format!("{} {} (≤ {})", e.measure, num(e.estimate), num(e.upper_bound)),
+            _ => "—".into(),
+        };
+        let _ = writeln!(
+            s,
+            "| [{}](#{}) | {} | {} | {} | {} | {} |",
+            code(&claim.id),
+            anchor(stem),
+            cell(&claim.kind),
+            decided(claim),
+            cell(&verdict_line(claim, result.scenario.alpha)),
+            p,
+            cell(&effect)
+        );
+    }
+    s.push('\n');
+}
+
+/// One claim: words, verdict, tests, effect, exact decision, estimates, figures.
+fn claim_section(s: &mut String, result: &RunResult, claim: &ClaimResult, stem: &str, figures: &[Figure]) {
+    let alpha = result.scenario.alpha;
+    let _ = writeln!(s, "<a id=\"{}\"></a>\n", anchor(stem));
+    let _ = writeln!(s, "## Claim {}\n", code(&claim.id));
+    if !claim.says.trim().is_empty() {
+        for line in claim.says.trim().lines() {
+            let _ = writeln!(s, "> {line}");
+        }
+        s.push('\n');
+    }
+    let _ = writeln!(s, "**Verdict: {}.**", verdict_line(claim, alpha));
+    if !claim.verdict.trim().is_empty() {
+        let _ = writeln!(s, "{}", claim.verdict.trim());
+    }
+    s.push('\n');
+    let obs = if claim.observables.is_empty() {
+        "none".to_string()
+    } else {
+        claim.observables.iter().map(|o| code(o)).collect::<Vec<_>>().join(", ")
+    };
+    let samples = if is_exact(claim) {
+        "decided by exact enumeration".to_string()
+    } else {
+        format!("{} samples per side", claim.samples)
+    };
+    let _ = writeln!(s, "Kind: {} · observables: {obs} · {samples}.\n", code(&claim.kind));
+
+    if !claim.tests.is_empty() {
+        let _ = writeln!(s, "### Tests\n");
+        let _ = writeln!(
+            s,
+            "| Test | Statistic | Degrees of freedom | p-value | Holm-adjusted p | At α = {} | Note |",
+            short(alpha)
+        );
+        let _ = writeln!(s, "|---|---|---|---|---|---|---|");
+        for t in &claim.tests {
+            let _ = writeln!(
+                s,
+                "| {} | {} | {} | {} | {} | {} | {} |",
+                cell(&t.name),
+                num(t.statistic),
+                t.dof.map_or("—".into(), num),
+                p_value(t.p_value),
+                p_value(t.adjusted_p_value),
+                if t.rejected { "**rejects**" } else { "does not reject" },
+                cell(&t.note)
+            );
+        }
+        let _ = writeln!(
+            s,
+            "\np-values are adjusted across this claim's tests by Holm's step-down method; \
+             the claim is rejected when any adjusted p-value is below α.\n"
+        );
+    }
+
+    if let Some(e) = &claim.effect {
+        let _ = writeln!(s, "### Effect size\n");
+        let _ = writeln!(
+            s,
+            "| Measure | Estimate | Upper bound ({}% confidence) | Smallest detectable difference (power {}) |",
+            num(100.0 * (1.0 - alpha)),
+            short(result.scenario.power)
+        );
+        let _ = writeln!(s, "|---|---|---|---|");
+        let _ = writeln!(
+            s,
+            "| {} | {} | {} | {} |\n",
+            cell(&e.measure),
+            num(e.estimate),
+            num(e.upper_bound),
+            num(e.detectable)
+        );
+        if !is_exact(claim) {
+            let shows = if claim.rejected {
+                format!(
+                    "What the run shows: a difference was found; the {} is estimated at {} and is at most {} \
+                     at {}% confidence.",
+                    e.measure,
+                    num(e.estimate),
+                    num(e.upper_bound),
+                    num(100.0 * (1.0 - alpha))
+                )
+            } else {
+                format!(
+                    "What the run shows: not rejected at α = {} with power {} against differences of {} ≥ {}; \
+                     the {} is at most {} at {}% confidence. Smaller differences could go unseen.",
+                    short(alpha),
+                    short(result.scenario.power),
+                    e.measure,
+                    num(e.detectable),
+                    e.measure,
+                    num(e.upper_bound),
+                    num(100.0 * (1.0 - alpha))
+                )
+            };
+            let _ = writeln!(s, "{shows}\n");
+        }
+    }
+
+    if let Some(ex) = &claim.exact {
+        let _ = writeln!(s, "### Exact decision\n");
+        let _ = writeln!(s, "| Total variation | Numerical error bound | Outcomes enumerated | Exact probability |");
+        let _ = writeln!(s, "|---|---|---|---|");
+        let _ = writeln!(
+            s,
+            "| {} | {} | {} | {} |\n",
+            num(ex.total_variation),
+            bound(ex.error_bound),
+            ex.outcomes,
+            ex.probability.map_or("—".into(), num)
+        );
+    }
+
+    estimates(s, claim);
+
+    if !figures.is_empty() {
+        let _ = writeln!(s, "### Figures\n");
+        for f in figures {
+            let _ = writeln!(s, "![{}]({})\n", cell(&f.title), f.file);
+            let _ = writeln!(s, "{}\n", f.caption);
+        }
+    }
+}
+
+/// Tables of probabilities, top outcomes and moments.
+fn estimates(s: &mut String, claim: &ClaimResult) {
+    let est = &claim.estimates;
+    if !est.probabilities.is_empty() {
+        let _ = writeln!(s, "### Probabilities\n");
+        let _ = writeln!(s, "| Event | Successes / trials | Estimate | Wilson interval | Clopper–Pearson interval |");
+        let _ = writeln!(s, "|---|---|---|---|---|");
+        for p in &est.probabilities {
+            let _ = writeln!(
+                s,
+                "| {} | {} / {} | {} | [{}, {}] | [{}, {}] |",
+                cell(&p.label),
+                p.successes,
+                p.trials,
+                num(p.estimate),
+                num(p.wilson_lower),
+                num(p.wilson_upper),
+                num(p.exact_lower),
+                num(p.exact_upper)
+            );
+        }
+        s.push('\n');
+    }
+    let tops: Vec<_> = est.top_outcomes.iter().enumerate().filter(|(_, t)| !t.is_empty()).collect();
+    if !tops.is_empty() {
+        let _ = writeln!(s, "### Most frequent outcomes\n");
+        let mut head = String::from("| Rank |");
+        let mut rule = String::from("|---|");
+        for (i, _) in &tops {
+            let name = side_name(claim, "", *i);
+            let _ = write!(head, " {} | Probability |", code(&name));
+            rule.push_str("---|---|");
+        }
+        let _ = writeln!(s, "{head}\n{rule}");
+        let rows = tops.iter().map(|(_, t)| t.len()).max().unwrap_or(0);
+        for r in 0..rows {
+            let _ = write!(s, "| {} |", r + 1);
+            for (_, t) in &tops {
+                match t.get(r) {
+                    Some(o) => {
+                        let _ = write!(s, " {} | {} |", code(&o.value), num(o.probability));
+                    }
+                    None => s.push_str(" | |"),
+                }
+            }
+            s.push('\n');
+        }
+        s.push('\n');
+    }
+    if !est.moments.is_empty() {
+        let _ = writeln!(s, "### Moments\n");
+        let _ = writeln!(s, "| Observable | Count | Mean | Standard deviation |");
+        let _ = writeln!(s, "|---|---|---|---|");
+        for (i, m) in est.moments.iter().enumerate() {
+            let _ = writeln!(
+                s,
+                "| {} | {} | {} | {} |",
+                cell(&side_name(claim, &m.label, i)),
+                m.count,
+                num(m.mean),
+                num(m.sd)
+            );
+        }
+        s.push('\n');
+    }
+}
+
+/// Everything needed to rerun.
+fn reproduce(s: &mut String, result: &RunResult, extras: &ReportExtras) {
+    let sc = &result.scenario;
+    let t = &result.timing;
+    let _ = writeln!(s, "## Reproduce\n");
+    let _ = writeln!(s, "| | |\n|---|---|");
+    let rows = [
+        ("Samples per side", sc.samples.to_string()),
+        ("Seed", sc.seed.to_string()),
+        ("α", short(sc.alpha)),
+        ("Power for detectable differences", short(sc.power)),
+        ("Shards merged", sc.shards.to_string()),
+        ("motley version", result.motley_version.clone()),
+        ("Git commit", code(&result.git_commit)),
+        ("Scenario hash (SHA-256)", code(&sc.hash)),
+        (
+            "Wall time",
+            format!(
+                "{} on {} thread{} ({} samples/s)",
+                duration(t.wall_seconds),
+                t.threads,
+                if t.threads == 1 { "" } else { "s" },
+                num(t.samples_per_second)
+            ),
+        ),
+    ];
+    for (k, v) in rows {
+        let _ = writeln!(s, "| {k} | {v} |");
+    }
+    s.push('\n');
+    if !extras.command.is_empty() {
+        let _ = writeln!(s, "The command that produced this report:\n");
+        let _ = writeln!(s, "```sh\n{}\n```\n", shell_line(&extras.command));
+    }
+    let _ = writeln!(
+        s,
+        "The scenario file is copied beside this summary as `scenario.yaml`; running it again with the \
+         same motley version and seed gives the same `result.json`, except the `timing` fields, whatever \
+         the number of threads or shards.\n"
+    );
+}
+
+/// What a run can and cannot show.
+fn limits(s: &mut String, result: &RunResult) {
+    let a = short(result.scenario.alpha);
+    let k = result.claims.iter().filter(|c| !is_describe(c)).count();
+    let _ = writeln!(s, "## Limits\n");
+    let _ = writeln!(
+        s,
+        "- Monte Carlo never proves an identity. \"Not rejected at α = {a}\" means the tests found no \
+         difference; what the run shows is \"not rejected at α = {a} with power P against differences ≥ d\", \
+         with P and d given per claim above. Smaller differences could go unseen."
+    );
+    let _ = writeln!(
+        s,
+        "- A true claim is wrongly rejected with probability at most α = {a} (Holm's method holds this \
+         across the claim's tests). Claims are not adjusted against each other: with {k} tested claim{}, \
+         the chance of at least one false alarm is at most {}.",
+        if k == 1 { "" } else { "s" },
+        num((k as f64 * result.scenario.alpha).min(1.0))
+    );
+    let _ = writeln!(
+        s,
+        "- An exact decision proves the identity only for the size enumerated, up to the stated numerical \
+         error bound; it says nothing about other sizes."
+    );
+    let _ = writeln!(
+        s,
+        "- Reference and limit curves in the figures are drawn for comparison; only the claims above are tested."
+    );
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn bounds_are_compact() {
+        assert_eq!(bound(0.0), "0");
+        assert_eq!(bound(1e-13), "1e-13");
+        assert_eq!(bound(2.3456789e-14), "2.35e-14");
+    }
+}

@@ -1,0 +1,247 @@
+//! Per-observable accumulators that merge exactly, so threads and shards add up to one pass.
+//!
+//! Everything is an integer count or a list of values; a merge is a sum of counts or a
+//! concatenation, and every statistic is computed after sorting. Hence the result of a run never
+//! depends on how its samples were split between threads or shards.
+//!
+//! Sets keep their joint law only when their universe has at most [`JOINT_LIMIT`] elements (a key
+//! is then a 128-bit mask); larger sets keep per-element inclusion counts and the laws of their
+//! scalar summaries. The rule depends on the scenario only, never on the data.
+
+use std::collections::BTreeMap;
+
+use serde::{Deserialize, Serialize};
+
+use crate::scenario::ValueKind;
+
+/// Largest universe whose joint set law is kept.
+pub const JOINT_LIMIT: usize = 128;
+
+/// Marker for "min or max of the empty set" in summary histograms.
+pub const EMPTY_SUMMARY: u64 = u64::MAX;
+
+/// A 128-bit set mask as two words (JSON has no 128-bit integers): `[low, high]`.
+pub type Mask = [u64; 2];
+
+/// Accumulated values of one observable on one replica.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub enum Accumulator {
+    /// Set-valued.
+    Set(SetCounts),
+    /// Numbers.
+    Scalar(ScalarValues),
+    /// Events.
+    Event(EventCounts),
+    /// Sequences.
+    Sequence(SequenceCounts),
+}
+
+/// Counts of a set observable.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SetCounts {
+    /// Samples.
+    pub n: u64,
+    /// Universe size.
+    pub universe: usize,
+    /// Joint law by mask, when the universe is small enough.
+    pub joint: Option<BTreeMap<Mask, u64>>,
+    /// Samples containing element `k + 1`.
+    pub inclusion: Vec<u64>,
+    /// Law of size, min, max, sum (in that order); empty min/max under [`EMPTY_SUMMARY`].
+    pub summaries: [BTreeMap<u64, u64>; 4],
+}
+
+/// Values of a number observable, in arrival order until sorted.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ScalarValues {
+    /// The values.
+    pub values: Vec<f64>,
+}
+
+/// Counts of an event.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct EventCounts {
+    /// Samples.
+    pub n: u64,
+    /// Samples where it happened.
+    pub yes: u64,
+}
+
+/// Counts of a sequence observable.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SequenceCounts {
+    /// Samples.
+    pub n: u64,
+    /// Law by sequence.
+    pub counts: BTreeMap<Vec<u32>, u64>,
+}
+
+/// Sets `mask` bit for element `k` (1-based).
+#[inline]
+pub fn mask_insert(mask: &mut Mask, k: usize) {
+    let b = k - 1;
+    mask[b / 64] |= 1u64 << (b % 64);
+}
+
+/// Elements of a mask, increasing.
+pub fn mask_elements(mask: &Mask) -> Vec<usize> {
+    let mut v = Vec::new();
+    for (w, word) in mask.iter().enumerate() {
+        let mut x = *word;
+        while x != 0 {
+            let b = x.trailing_zeros() as usize;
+            v.push(w * 64 + b + 1);
+            x &= x - 1;
+        }
+    }
+    v
+}
+
+impl Accumulator {
+    /// An empty accumulator for values of `kind`.
+    pub fn new(kind: ValueKind) -> Self {
+        match kind {
+            ValueKind::Set { universe } => Accumulator::Set(SetCounts {
+                n: 0,
+                universe,
+                joint: (universe <= JOINT_LIMIT).then(BTreeMap::new),
+                inclusion: vec![0; universe],
+                summaries: Default::default(),
+            }),
+            ValueKind::Scalar { .. } => Accumulator::Scalar(ScalarValues { values: Vec::new() }),
+            ValueKind::Event => Accumulator::Event(EventCounts { n: 0, yes: 0 }),
+            ValueKind::Sequence { .. } => Accumulator::Sequence(SequenceCounts {
+                n: 0,
+                counts: BTreeMap::new(),
+            }),
+        }
+    }
+
+    /// Adds one set, given by its increasing elements.
+    pub fn add_set(&mut self, elements: &[usize]) {
+        let Accumulator::Set(s) = self else { return };
+        s.n += 1;
+        let mut mask: Mask = [0, 0];
+        let mut sum = 0u64;
+        for &k in elements {
+            s.inclusion[k - 1] += 1;
+            sum += k as u64;
+            if k <= JOINT_LIMIT {
+                mask_insert(&mut mask, k);
+            }
+        }
+        if let Some(j) = &mut s.joint {
+            *j.entry(mask).or_insert(0) += 1;
+        }
+        let min = elements.first().map_or(EMPTY_SUMMARY, |&m| m as u64);
+        let max = elements.last().map_or(EMPTY_SUMMARY, |&m| m as u64);
+        for (h, v) in s.summaries.iter_mut().zip([elements.len() as u64, min, max, sum]) {
+            *h.entry(v).or_insert(0) += 1;
+        }
+    }
+
+    /// Adds one number.
+    pub fn add_scalar(&mut self, v: f64) {
+        if let Accumulator::Scalar(s) = self {
+            s.values.push(v);
+        }
+    }
+
+    /// Adds one event outcome.
+    pub fn add_event(&mut self, happened: bool) {
+        if let Accumulator::Event(e) = self {
+            e.n += 1;
+            e.yes += u64::from(happened);
+        }
+    }
+
+    /// Adds one sequence.
+    pub fn add_sequence(&mut self, seq: &[u32]) {
+        if let Accumulator::Sequence(s) = self {
+            s.n += 1;
+            *s.counts.entry(seq.to_vec()).or_insert(0) += 1;
+        }
+    }
+
+    /// Merges `other` into `self` exactly (counts add, values concatenate).
+    pub fn merge(&mut self, other: &Accumulator) {
+        match (self, other) {
+            (Accumulator::Set(a), Accumulator::Set(b)) => {
+                a.n += b.n;
+                if let (Some(ja), Some(jb)) = (&mut a.joint, &b.joint) {
+                    add_counts(ja, jb);
+                }
+                for (x, y) in a.inclusion.iter_mut().zip(&b.inclusion) {
+                    *x += y;
+                }
+                for (ha, hb) in a.summaries.iter_mut().zip(&b.summaries) {
+                    add_counts(ha, hb);
+                }
+            }
+            (Accumulator::Scalar(a), Accumulator::Scalar(b)) => a.values.extend_from_slice(&b.values),
+            (Accumulator::Event(a), Accumulator::Event(b)) => {
+                a.n += b.n;
+                a.yes += b.yes;
+            }
+            (Accumulator::Sequence(a), Accumulator::Sequence(b)) => {
+                a.n += b.n;
+                add_counts(&mut a.counts, &b.counts);
+            }
+            _ => {}
+        }
+    }
+
+    /// Puts the values in a canonical order (scalars sorted), after all merges.
+    pub fn canonicalize(&mut self) {
+        if let Accumulator::Scalar(s) = self {
+            s.values.sort_by(f64::total_cmp);
+        }
+    }
+
+    /// Number of samples accumulated.
+    pub fn count(&self) -> u64 {
+        match self {
+            Accumulator::Set(s) => s.n,
+            Accumulator::Scalar(s) => s.values.len() as u64,
+            Accumulator::Event(e) => e.n,
+            Accumulator::Sequence(s) => s.n,
+        }
+    }
+}
+
+fn add_counts<K: Ord + Clone>(a: &mut BTreeMap<K, u64>, b: &BTreeMap<K, u64>) {
+    for (k, v) in b {
+        *a.entry(k.clone()).or_insert(0) += v;
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn merging_parts_equals_one_pass() {
+        let kind = ValueKind::Set { universe: 5 };
+        let data: Vec<Vec<usize>> = (0..50)
+            .map(|i| (1..=5).filter(|k| (i * 7 + k * 3) % 4 == 0).collect())
+            .collect();
+        let mut whole = Accumulator::new(kind);
+        for d in &data {
+            whole.add_set(d);
+        }
+        for parts in [2, 7] {
+            let mut merged = Accumulator::new(kind);
+            for chunk in data.chunks(data.len().div_ceil(parts)) {
+                let mut a = Accumulator::new(kind);
+                for d in chunk {
+                    a.add_set(d);
+                }
+                merged.merge(&a);
+            }
+            assert_eq!(merged, whole);
+        }
+        let Accumulator::Set(s) = &whole else { unreachable!() };
+        assert_eq!(s.inclusion.iter().sum::<u64>(), data.iter().map(|d| d.len() as u64).sum());
+        assert_eq!(mask_elements(&[0b101, 1]), vec![1, 3, 65]);
+    }
+}

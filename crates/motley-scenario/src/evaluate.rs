@@ -1,0 +1,636 @@
+//! Monte Carlo verdicts: from the accumulators of a claim's sides to its tests, effect size and
+//! estimates.
+//!
+//! Each claim runs a small family of tests; their p-values are Holm-adjusted together (Holm 1979), and
+//! the claim is rejected when the smallest adjusted p-value is at most `alpha`. The family's size is
+//! fixed by the claim's kind, never by the data.
+//!
+//! | claim | tests |
+//! |---|---|
+//! | same law, sets | chi-square on the joint law (cells with expected count < 5 pooled, common practice); per-element two-proportion tests, Holm across elements; two-sample KS on size, min, max, sum |
+//! | same law, sequences | chi-square on the joint law |
+//! | same law, numbers | two-sample KS (conservative on integer data); chi-square on the support for integer data |
+//! | same law, events | two-proportion test |
+//! | law of, continuous reference | one-sample KS |
+//! | law of, tail from a profile | per-site two-proportion tests of `P(X ≥ x)` against the profile, Holm across sites |
+//! | probability | exact binomial test against the stated value |
+
+use std::collections::BTreeMap;
+
+use motley_stats::{
+    chi_square_homogeneity, detectable_probability_gap, detectable_total_variation,
+    holm_bonferroni, kolmogorov_sf, ks_one_sample, ks_two_sample, ks_two_sample_counts,
+    normal_upper_quantile, total_variation, two_proportion_p_value, CategoricalCounts,
+    ChiSquareOptions, KsMethod, ScalarSample,
+};
+
+use crate::accumulate::{mask_elements, Accumulator, SetCounts, EMPTY_SUMMARY};
+use crate::estimate::*;
+use crate::result::{ClaimResult, Effect, Estimates, Series, TestResult};
+use crate::scenario::{ClaimKind, ClaimSpec, ReadSpec, ReferenceSpec, Scenario};
+
+/// Upper `1 − alpha` quantile of the Kolmogorov distribution, by bisection on its survival function.
+pub fn kolmogorov_quantile(alpha: f64) -> f64 {
+    let (mut lo, mut hi) = (0.2, 5.0);
+    for _ in 0..100 {
+        let mid = 0.5 * (lo + hi);
+        if kolmogorov_sf(mid) > alpha {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    0.5 * (lo + hi)
+}
+
+struct Family {
+    tests: Vec<TestResult>,
+}
+
+impl Family {
+    fn new() -> Self {
+        Family { tests: Vec::new() }
+    }
+    fn push(&mut self, name: &str, statistic: f64, dof: Option<f64>, p: f64, note: String) {
+        self.tests.push(TestResult {
+            name: name.to_string(),
+            statistic,
+            dof,
+            p_value: p,
+            adjusted_p_value: p,
+            rejected: false,
+            note,
+        });
+    }
+    /// Applies Holm across the family; returns whether the claim is rejected.
+    fn close(&mut self, alpha: f64) -> bool {
+        if self.tests.is_empty() {
+            return false;
+        }
+        let p: Vec<f64> = self.tests.iter().map(|t| t.p_value).collect();
+        let adj = holm_bonferroni(&p).unwrap_or(p);
+        let mut any = false;
+        for (t, a) in self.tests.iter_mut().zip(adj) {
+            t.adjusted_p_value = a;
+            t.rejected = a <= alpha;
+            any |= t.rejected;
+        }
+        any
+    }
+}
+
+fn set_counts(s: &SetCounts) -> Option<CategoricalCounts<[u64; 2]>> {
+    let j = s.joint.as_ref()?;
+    let mut c = CategoricalCounts::new();
+    for (k, v) in j {
+        c.add_count(*k, *v);
+    }
+    Some(c)
+}
+
+fn hist_counts(h: &BTreeMap<u64, u64>) -> CategoricalCounts<u64> {
+    let mut c = CategoricalCounts::new();
+    for (k, v) in h {
+        c.add_count(*k, *v);
+    }
+    c
+}
+
+const SUMMARY_NAMES: [&str; 4] = ["size", "min", "max", "sum"];
+
+fn same_law_sets(
+    s: &Scenario,
+    names: [&str; 2],
+    a: &SetCounts,
+    b: &SetCounts,
+    fam: &mut Family,
+    est: &mut Estimates,
+) -> Option<Effect> {
+    let alpha = s.alpha;
+    let mut effect = None;
+    if let (Some(ca), Some(cb)) = (set_counts(a), set_counts(b)) {
+        if let Ok(r) = chi_square_homogeneity(&ca, &cb, &ChiSquareOptions::default()) {
+            fam.push(
+                "chi-square on the joint law",
+                r.statistic,
+                Some(r.dof as f64),
+                r.p_value,
+                format!(
+                    "{} outcomes seen; {} rare ones pooled into one cell (expected count < 5, common practice); {} cells compared",
+                    r.cells, r.pooled_cells, r.tested_cells
+                ),
+            );
+            if let Ok(tv) = total_variation(&ca, &cb, alpha) {
+                let detect = detectable_total_variation(a.n, b.n, r.tested_cells.max(2), alpha, s.power)
+                    .ok()
+                    .flatten()
+                    .unwrap_or(1.0);
+                effect = Some(Effect {
+                    measure: "total variation".into(),
+                    estimate: tv.estimate,
+                    upper_bound: tv.upper_bound,
+                    detectable: detect,
+                });
+            }
+        }
+        for (side, (c, n)) in [(&a.joint, a.n), (&b.joint, b.n)].into_iter().enumerate() {
+            if let Some(c) = c {
+                est.top_outcomes.push(top_outcomes(c, n, 20, |m| show_set(&mask_elements(m))));
+            }
+            let _ = side;
+        }
+    }
+    // Per-element inclusion, Holm across elements.
+    let universe = a.universe.max(b.universe);
+    let mut p = Vec::new();
+    let mut worst = (0.0f64, 0usize);
+    for k in 0..universe {
+        let xa = a.inclusion.get(k).copied().unwrap_or(0);
+        let xb = b.inclusion.get(k).copied().unwrap_or(0);
+        let (pv, _) = two_proportion_p_value(xa, a.n, xb, b.n);
+        p.push(pv);
+        let gap = (xa as f64 / a.n as f64 - xb as f64 / b.n as f64).abs();
+        if gap > worst.0 {
+            worst = (gap, k + 1);
+        }
+    }
+    if !p.is_empty() {
+        let adj = holm_bonferroni(&p).unwrap_or_else(|_| p.clone());
+        let (i, min) = adj
+            .iter()
+            .enumerate()
+            .fold((0, 1.0f64), |acc, (i, &v)| if v < acc.1 { (i, v) } else { acc });
+        fam.push(
+            "per-element inclusion (two-proportion, Holm across elements)",
+            worst.0,
+            None,
+            min,
+            format!(
+                "statistic: largest gap in inclusion frequency (element {}); p-value: smallest Holm-adjusted over {} elements (element {})",
+                worst.1,
+                universe,
+                i + 1
+            ),
+        );
+        if effect.is_none() {
+            let pbar = 0.5;
+            let detect = detectable_probability_gap(a.n, b.n, pbar, alpha / universe as f64, s.power)
+                .ok()
+                .flatten()
+                .unwrap_or(1.0);
+            let z = normal_upper_quantile(alpha / (2.0 * universe as f64));
+            let se = (0.25 / a.n as f64 + 0.25 / b.n as f64).sqrt();
+            effect = Some(Effect {
+                measure: "largest per-element inclusion gap".into(),
+                estimate: worst.0,
+                upper_bound: (worst.0 + z * se).min(1.0),
+                detectable: detect,
+            });
+        }
+    }
+    // Scalar summaries.
+    for (k, name) in SUMMARY_NAMES.iter().enumerate() {
+        let (ha, hb) = (&a.summaries[k], &b.summaries[k]);
+        let drop_empty = |h: &BTreeMap<u64, u64>| {
+            let mut h = h.clone();
+            h.remove(&EMPTY_SUMMARY);
+            h
+        };
+        let (ha, hb) = if k == 1 || k == 2 {
+            (drop_empty(ha), drop_empty(hb))
+        } else {
+            (ha.clone(), hb.clone())
+        };
+        if ha.is_empty() || hb.is_empty() {
+            continue;
+        }
+        if let Ok(r) = ks_two_sample_counts(&hist_counts(&ha), &hist_counts(&hb), KsMethod::Auto) {
+            let note = if k == 1 || k == 2 {
+                "integer data: KS is conservative here; empty sets left out"
+            } else {
+                "integer data: KS is conservative here"
+            };
+            fam.push(&format!("two-sample KS on the {name}"), r.statistic, None, r.p_value, note.into());
+        }
+    }
+    for (side, c) in [a, b].into_iter().enumerate() {
+        let x: Vec<f64> = (1..=c.universe).map(|k| k as f64).collect();
+        est.inclusion
+            .push(proportion_series(names[side], x, &c.inclusion, c.n, alpha));
+        let sizes: Vec<f64> = c.summaries[0].keys().map(|&k| k as f64).collect();
+        let counts: Vec<u64> = c.summaries[0].values().copied().collect();
+        est.size_law
+            .push(proportion_series(names[side], sizes, &counts, c.n, alpha));
+    }
+    effect
+}
+
+fn same_law_scalars(
+    s: &Scenario,
+    names: [&str; 2],
+    a: &[f64],
+    b: &[f64],
+    integer: bool,
+    fam: &mut Family,
+    est: &mut Estimates,
+) -> Option<Effect> {
+    let alpha = s.alpha;
+    let sa = ScalarSample::from_values(a.to_vec()).ok()?;
+    let sb = ScalarSample::from_values(b.to_vec()).ok()?;
+    let (na, nb) = (a.len() as u64, b.len() as u64);
+    if let Ok(r) = ks_two_sample(&sa, &sb, KsMethod::Auto) {
+        let note = if r.conservative {
+            "ties in the data: KS is conservative here".to_string()
+        } else {
+            String::new()
+        };
+        fam.push("two-sample Kolmogorov–Smirnov", r.statistic, None, r.p_value, note);
+    }
+    if integer {
+        let hist = |v: &[f64]| {
+            let mut h = CategoricalCounts::new();
+            for &x in v {
+                h.add(x as i64);
+            }
+            h
+        };
+        if let Ok(r) = chi_square_homogeneity(&hist(a), &hist(b), &ChiSquareOptions::default()) {
+            fam.push(
+                "chi-square on the support",
+                r.statistic,
+                Some(r.dof as f64),
+                r.p_value,
+                format!("exact alternative to KS for integer data; {} rare values pooled", r.pooled_cells),
+            );
+        }
+    }
+    let d = ks_distance(a, b);
+    let margin = dkw_pair(na, nb, alpha);
+    let scale = (1.0 / na as f64 + 1.0 / nb as f64).sqrt();
+    let detect = (kolmogorov_quantile(alpha) + 0.5 * normal_upper_quantile(1.0 - s.power)) * scale;
+    for (name, v) in names.iter().zip([a, b]) {
+        est.ecdf.push(ecdf_series(name, v, alpha));
+        est.moments.push(moments(name, v));
+    }
+    Some(Effect {
+        measure: "Kolmogorov distance".into(),
+        estimate: d,
+        upper_bound: (d + margin).min(1.0),
+        detectable: detect.min(1.0),
+    })
+}
+
+/// `sup |F_a − F_b|` of two sorted samples.
+pub fn ks_distance(a: &[f64], b: &[f64]) -> f64 {
+    let (mut i, mut j, mut d) = (0usize, 0usize, 0.0f64);
+    let (na, nb) = (a.len() as f64, b.len() as f64);
+    while i < a.len() && j < b.len() {
+        let x = a[i].min(b[j]);
+        while i < a.len() && a[i] <= x {
+            i += 1;
+        }
+        while j < b.len() && b[j] <= x {
+            j += 1;
+        }
+        d = d.max((i as f64 / na - j as f64 / nb).abs());
+    }
+    d
+}
+
+/// Simultaneous margin for the distance of two empirical CDFs to their laws: DKW–Massart at
+/// `alpha / 2` on each side.
+fn dkw_pair(na: u64, nb: u64, alpha: f64) -> f64 {
+    dkw(na, alpha / 2.0) + dkw(nb, alpha / 2.0)
+}
+
+/// The reference CDF of a continuous reference law.
+pub fn reference_cdf(r: &ReferenceSpec) -> Option<Box<dyn Fn(f64) -> f64>> {
+    match *r {
+        ReferenceSpec::Uniform(a, b) => Some(Box::new(move |x| ((x - a) / (b - a)).clamp(0.0, 1.0))),
+        ReferenceSpec::Normal(m, sd) => Some(Box::new(move |x| {
+            motley_stats::normal_sf(-(x - m) / sd)
+        })),
+        ReferenceSpec::TailFromProfile(_) => None,
+    }
+}
+
+fn reference_name(r: &ReferenceSpec) -> String {
+    match *r {
+        ReferenceSpec::Uniform(a, b) => format!("Uniform[{a}, {b}]"),
+        ReferenceSpec::Normal(m, sd) => format!("Normal(mean {m}, sd {sd})"),
+        ReferenceSpec::TailFromProfile(_) => "tail from the profile".into(),
+    }
+}
+
+/// Reference curve sampled on the ECDF's abscissae.
+fn reference_series(r: &ReferenceSpec, x: &[f64]) -> Option<Series> {
+    let f = reference_cdf(r)?;
+    let y: Vec<f64> = x.iter().map(|&v| f(v)).collect();
+    Some(Series {
+        label: reference_name(r),
+        x: x.to_vec(),
+        lower: y.clone(),
+        upper: y.clone(),
+        y,
+    })
+}
+
+fn law_of_continuous(
+    s: &Scenario,
+    name: &str,
+    v: &[f64],
+    r: &ReferenceSpec,
+    tested: bool,
+    fam: &mut Family,
+    est: &mut Estimates,
+) -> Option<Effect> {
+    let f = reference_cdf(r)?;
+    let n = v.len() as u64;
+    let sample = ScalarSample::from_values(v.to_vec()).ok()?;
+    let res = ks_one_sample(&sample, &f, KsMethod::Auto).ok()?;
+    if tested {
+        let note = if res.conservative {
+            "ties in the data: KS is conservative here".to_string()
+        } else {
+            String::new()
+        };
+        fam.push(
+            &format!("one-sample Kolmogorov–Smirnov against {}", reference_name(r)),
+            res.statistic,
+            None,
+            res.p_value,
+            note,
+        );
+    }
+    let e = ecdf_series(name, v, s.alpha);
+    est.reference = reference_series(r, &e.x);
+    est.ecdf.push(e);
+    est.moments.push(moments(name, v));
+    let scale = 1.0 / (n.max(1) as f64).sqrt();
+    Some(Effect {
+        measure: if tested {
+            "Kolmogorov distance to the reference".into()
+        } else {
+            "Kolmogorov distance to the reference (shown, not tested)".into()
+        },
+        estimate: res.statistic,
+        upper_bound: (res.statistic + dkw(n, s.alpha)).min(1.0),
+        detectable: ((kolmogorov_quantile(s.alpha) + 0.5 * normal_upper_quantile(1.0 - s.power)) * scale)
+            .min(1.0),
+    })
+}
+
+fn tail_from_profile(
+    s: &Scenario,
+    names: [&str; 2],
+    x: &[f64],
+    profile: &SetCounts,
+    from: i64,
+    fam: &mut Family,
+    est: &mut Estimates,
+) -> Option<Effect> {
+    let n_a = x.len() as u64;
+    let n_b = profile.n;
+    let sites: Vec<i64> = (0..profile.universe as i64).map(|k| from + k).collect();
+    // Sorted x: count of X ≥ site by binary search.
+    let tail: Vec<u64> = sites
+        .iter()
+        .map(|&site| (x.len() - x.partition_point(|&v| v < site as f64)) as u64)
+        .collect();
+    let mut p = Vec::new();
+    let mut worst = 0.0f64;
+    for (k, &t) in tail.iter().enumerate() {
+        let (pv, _) = two_proportion_p_value(t, n_a, profile.inclusion[k], n_b);
+        p.push(pv);
+        worst = worst.max((t as f64 / n_a as f64 - profile.inclusion[k] as f64 / n_b as f64).abs());
+    }
+    let m = sites.len().max(1);
+    if !p.is_empty() {
+        let adj = holm_bonferroni(&p).unwrap_or_else(|_| p.clone());
+        let min = adj.iter().copied().fold(1.0, f64::min);
+        fam.push(
+            "per-site P(X ≥ x) against the profile (two-proportion, Holm across sites)",
+            worst,
+            None,
+            min,
+            format!("statistic: largest gap over {m} sites"),
+        );
+    }
+    let xs: Vec<f64> = sites.iter().map(|&v| v as f64).collect();
+    est.ecdf
+        .push(proportion_series(&format!("P({} ≥ x)", names[0]), xs.clone(), &tail, n_a, s.alpha));
+    est.reference = Some(proportion_series(
+        &format!("occupation of x in {}", names[1]),
+        xs,
+        &profile.inclusion,
+        n_b,
+        s.alpha,
+    ));
+    est.moments.push(moments(names[0], x));
+    let z = normal_upper_quantile(s.alpha / (2.0 * m as f64));
+    let se = (0.25 / n_a as f64 + 0.25 / n_b as f64).sqrt();
+    Some(Effect {
+        measure: "largest gap between P(X ≥ x) and the profile".into(),
+        estimate: worst,
+        upper_bound: (worst + z * se).min(1.0),
+        detectable: detectable_probability_gap(n_a, n_b, 0.5, s.alpha / m as f64, s.power)
+            .ok()
+            .flatten()
+            .unwrap_or(1.0),
+    })
+}
+
+fn accs<'a>(slots: &'a [(crate::unit::Slot, Accumulator)], sl: &crate::unit::Slot) -> &'a Accumulator {
+    &slots.iter().find(|(k, _)| k == sl).expect("planned slot").1
+}
+
+/// Evaluates Monte Carlo claim `ci` from the merged accumulators.
+pub fn evaluate(
+    s: &Scenario,
+    ci: usize,
+    slots: &[(crate::unit::Slot, Accumulator)],
+) -> ClaimResult {
+    let c: &ClaimSpec = &s.claims[ci];
+    let sl = crate::unit::claim_slots(s, ci);
+    let mut fam = Family::new();
+    let mut est = Estimates::default();
+    let name = |i: usize| s.observables[i].name.as_str();
+    let mut effect = None;
+    let (kind, observables): (&str, Vec<String>) = match &c.kind {
+        ClaimKind::SameLaw(a, b) => ("same-law", vec![name(*a).into(), name(*b).into()]),
+        ClaimKind::LawOf(a, ReferenceSpec::TailFromProfile(b)) => {
+            ("law-of", vec![name(*a).into(), name(*b).into()])
+        }
+        ClaimKind::LawOf(a, _) => ("law-of", vec![name(*a).into()]),
+        ClaimKind::Probability(a, _) => ("probability", vec![name(*a).into()]),
+        ClaimKind::Describe(a, ..) => ("describe", vec![name(*a).into()]),
+    };
+    let labels: [&str; 2] = [
+        observables.first().map(|s| s.as_str()).unwrap_or(""),
+        observables.get(1).map(|s| s.as_str()).unwrap_or(""),
+    ];
+    match &c.kind {
+        ClaimKind::SameLaw(..) => match (accs(slots, &sl[0]), accs(slots, &sl[1])) {
+            (Accumulator::Set(a), Accumulator::Set(b)) => {
+                effect = same_law_sets(s, labels, a, b, &mut fam, &mut est)
+            }
+            (Accumulator::Scalar(a), Accumulator::Scalar(b)) => {
+                let integer = matches!(s.observables[sl[0].observable].kind, crate::scenario::ValueKind::Scalar { integer: true })
+                    && matches!(s.observables[sl[1].observable].kind, crate::scenario::ValueKind::Scalar { integer: true });
+                effect = same_law_scalars(s, labels, &a.values, &b.values, integer, &mut fam, &mut est)
+            }
+            (Accumulator::Event(a), Accumulator::Event(b)) => {
+                let (p, _) = two_proportion_p_value(a.yes, a.n, b.yes, b.n);
+                let (pa, pb) = (a.yes as f64 / a.n as f64, b.yes as f64 / b.n as f64);
+                fam.push("two-proportion test", (pa - pb).abs(), None, p, String::new());
+                est.probabilities.push(interval(labels[0], a.yes, a.n, s.alpha));
+                est.probabilities.push(interval(labels[1], b.yes, b.n, s.alpha));
+                let z = normal_upper_quantile(s.alpha / 2.0);
+                let se = (pa * (1.0 - pa) / a.n as f64 + pb * (1.0 - pb) / b.n as f64).sqrt();
+                effect = Some(Effect {
+                    measure: "probability gap".into(),
+                    estimate: (pa - pb).abs(),
+                    upper_bound: ((pa - pb).abs() + z * se).min(1.0),
+                    detectable: detectable_probability_gap(a.n, b.n, 0.5 * (pa + pb), s.alpha, s.power)
+                        .ok()
+                        .flatten()
+                        .unwrap_or(1.0),
+                });
+            }
+            (Accumulator::Sequence(a), Accumulator::Sequence(b)) => {
+                let to = |m: &BTreeMap<Vec<u32>, u64>| {
+                    let mut c = CategoricalCounts::new();
+                    for (k, v) in m {
+                        c.add_count(k.clone(), *v);
+                    }
+                    c
+                };
+                let (ca, cb) = (to(&a.counts), to(&b.counts));
+                if let Ok(r) = chi_square_homogeneity(&ca, &cb, &ChiSquareOptions::default()) {
+                    fam.push(
+                        "chi-square on the joint law",
+                        r.statistic,
+                        Some(r.dof as f64),
+                        r.p_value,
+                        format!("{} outcomes seen; {} rare ones pooled (expected count < 5, common practice)", r.cells, r.pooled_cells),
+                    );
+                    if let Ok(tv) = total_variation(&ca, &cb, s.alpha) {
+                        effect = Some(Effect {
+                            measure: "total variation".into(),
+                            estimate: tv.estimate,
+                            upper_bound: tv.upper_bound,
+                            detectable: detectable_total_variation(a.n, b.n, r.tested_cells.max(2), s.alpha, s.power)
+                                .ok()
+                                .flatten()
+                                .unwrap_or(1.0),
+                        });
+                    }
+                }
+                est.top_outcomes.push(top_outcomes(&a.counts, a.n, 20, |k| show_sequence(k)));
+                est.top_outcomes.push(top_outcomes(&b.counts, b.n, 20, |k| show_sequence(k)));
+            }
+            _ => {}
+        },
+        ClaimKind::LawOf(_, ReferenceSpec::TailFromProfile(_)) => {
+            if let (Accumulator::Scalar(x), Accumulator::Set(p)) =
+                (accs(slots, &sl[0]), accs(slots, &sl[1]))
+            {
+                let from = match s.observables[sl[1].observable].read {
+                    ReadSpec::Window(from, ..) => from,
+                    _ => 1,
+                };
+                effect = tail_from_profile(s, labels, &x.values, p, from, &mut fam, &mut est);
+            }
+        }
+        ClaimKind::LawOf(_, r) => {
+            if let Accumulator::Scalar(x) = accs(slots, &sl[0]) {
+                effect = law_of_continuous(s, labels[0], &x.values, r, true, &mut fam, &mut est);
+            }
+        }
+        ClaimKind::Probability(_, equals) => {
+            if let Accumulator::Event(e) = accs(slots, &sl[0]) {
+                est.probabilities.push(interval(labels[0], e.yes, e.n, s.alpha));
+                if let Some(p0) = equals {
+                    if let Ok(t) = motley_stats::binomial_test(e.yes, e.n, *p0) {
+                        fam.push(
+                            &format!("exact binomial test against {p0}"),
+                            t.estimate,
+                            None,
+                            t.p_value,
+                            "statistic: the estimated probability".into(),
+                        );
+                    }
+                    let ph = e.yes as f64 / e.n as f64;
+                    let i = interval("", e.yes, e.n, s.alpha);
+                    let z = normal_upper_quantile(s.alpha / 2.0) + normal_upper_quantile(1.0 - s.power);
+                    effect = Some(Effect {
+                        measure: "probability gap to the stated value".into(),
+                        estimate: (ph - p0).abs(),
+                        upper_bound: (i.exact_upper - p0).abs().max((p0 - i.exact_lower).abs()),
+                        detectable: (z * (p0 * (1.0 - p0) / e.n as f64).sqrt()).min(1.0),
+                    });
+                }
+            }
+        }
+        ClaimKind::Describe(_, reference, _) => match accs(slots, &sl[0]) {
+            Accumulator::Scalar(x) => {
+                if let Some(r) = reference {
+                    effect = law_of_continuous(s, labels[0], &x.values, r, false, &mut fam, &mut est);
+                } else {
+                    est.ecdf.push(ecdf_series(labels[0], &x.values, s.alpha));
+                    est.moments.push(moments(labels[0], &x.values));
+                }
+            }
+            Accumulator::Event(e) => est.probabilities.push(interval(labels[0], e.yes, e.n, s.alpha)),
+            Accumulator::Set(a) => {
+                let x: Vec<f64> = (1..=a.universe).map(|k| k as f64).collect();
+                est.inclusion.push(proportion_series(labels[0], x, &a.inclusion, a.n, s.alpha));
+                let sizes: Vec<f64> = a.summaries[0].keys().map(|&k| k as f64).collect();
+                let counts: Vec<u64> = a.summaries[0].values().copied().collect();
+                est.size_law.push(proportion_series(labels[0], sizes, &counts, a.n, s.alpha));
+                if let Some(j) = &a.joint {
+                    est.top_outcomes.push(top_outcomes(j, a.n, 20, |m| show_set(&mask_elements(m))));
+                }
+            }
+            Accumulator::Sequence(q) => {
+                est.top_outcomes.push(top_outcomes(&q.counts, q.n, 20, |k| show_sequence(k)))
+            }
+        },
+    }
+    let rejected = fam.close(s.alpha);
+    let samples = sl.first().map(|x| accs(slots, x).count()).unwrap_or(0);
+    let verdict = verdict(s, c, rejected, &effect);
+    ClaimResult {
+        id: c.id.clone(),
+        kind: kind.into(),
+        says: c.says.clone(),
+        observables,
+        decided_by: "monte-carlo".into(),
+        rejected,
+        verdict,
+        samples,
+        tests: fam.tests,
+        effect,
+        exact: None,
+        estimates: est,
+    }
+}
+
+fn verdict(s: &Scenario, c: &ClaimSpec, rejected: bool, effect: &Option<Effect>) -> String {
+    if matches!(c.kind, ClaimKind::Describe(..)) {
+        return "no claim: estimates only".into();
+    }
+    if matches!(c.kind, ClaimKind::Probability(_, None)) {
+        return "no stated value: estimate with intervals only".into();
+    }
+    if rejected {
+        return format!("REJECTED at α = {}", s.alpha);
+    }
+    match effect {
+        Some(e) => format!(
+            "not rejected at α = {}; with power {} the run would have detected a {} of {:.3e} or more",
+            s.alpha, s.power, e.measure, e.detectable
+        ),
+        None => format!("not rejected at α = {}", s.alpha),
+    }
+}

@@ -1,0 +1,237 @@
+//! From partial results to the final [`RunResult`]: checks that the partials belong together, merges
+//! them, and evaluates every claim (exact ones by exact laws).
+
+use crate::accumulate::Accumulator;
+use crate::plan::Plan;
+use crate::result::{RunResult, ScenarioInfo, Timing, SCHEMA};
+use crate::run::{Partial, PARTIAL_SCHEMA};
+use crate::scenario::Scenario;
+
+/// Why partial results cannot be merged.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum MergeError {
+    /// Not a partial result of this format.
+    #[error("{file}: not a motley partial result (schema `{found}`, expected `{PARTIAL_SCHEMA}`)")]
+    Schema {
+        /// Where it came from.
+        file: String,
+        /// Schema found.
+        found: String,
+    },
+    /// Written by another motley version.
+    #[error("{file}: written by motley {found}, this is motley {}; rerun the shard with this version", crate::VERSION)]
+    Version {
+        /// Where it came from.
+        file: String,
+        /// Version found.
+        found: String,
+    },
+    /// From another scenario (or another version of the file).
+    #[error("{file}: belongs to scenario `{name}` with hash {found}, expected hash {expected}")]
+    Foreign {
+        /// Where it came from.
+        file: String,
+        /// Its scenario name.
+        name: String,
+        /// Its hash.
+        found: String,
+        /// The expected hash.
+        expected: String,
+    },
+    /// Shard counts disagree.
+    #[error("{file}: is shard {index}/{count}, but other shards say the run has {expected} shards")]
+    ShardCount {
+        /// Where it came from.
+        file: String,
+        /// Its shard number.
+        index: u64,
+        /// Its count.
+        count: u64,
+        /// The count of the others.
+        expected: u64,
+    },
+    /// A shard given twice.
+    #[error("shard {index}/{count} is given twice: {first} and {second}")]
+    Duplicate {
+        /// Shard number.
+        index: u64,
+        /// Count.
+        count: u64,
+        /// First file.
+        first: String,
+        /// Second file.
+        second: String,
+    },
+    /// Shards missing.
+    #[error("shards missing: {missing} of {count} (have {have})")]
+    Missing {
+        /// Missing shard numbers.
+        missing: String,
+        /// Count.
+        count: u64,
+        /// Present shard numbers.
+        have: String,
+    },
+    /// A shard that did not finish.
+    #[error("{file}: shard {index}/{count} is incomplete ({done} of its samples); resume it with --resume")]
+    Incomplete {
+        /// Where it came from.
+        file: String,
+        /// Shard number.
+        index: u64,
+        /// Count.
+        count: u64,
+        /// Samples done.
+        done: u64,
+    },
+    /// No input.
+    #[error("nothing to merge")]
+    Empty,
+}
+
+/// Checks that `partials` (with the files they came from) are exactly the shards of one run of `s`.
+///
+/// # Errors
+/// [`MergeError`] naming the offending file.
+pub fn check_partials(s: &Scenario, partials: &[(String, Partial)]) -> Result<(), MergeError> {
+    let Some((_, first)) = partials.first() else {
+        return Err(MergeError::Empty);
+    };
+    let count = first.shard.count;
+    let mut seen: Vec<Option<&str>> = vec![None; count as usize];
+    for (file, p) in partials {
+        if p.schema != PARTIAL_SCHEMA {
+            return Err(MergeError::Schema {
+                file: file.clone(),
+                found: p.schema.clone(),
+            });
+        }
+        if p.motley_version != crate::VERSION {
+            return Err(MergeError::Version {
+                file: file.clone(),
+                found: p.motley_version.clone(),
+            });
+        }
+        if p.scenario_hash != s.hash {
+            return Err(MergeError::Foreign {
+                file: file.clone(),
+                name: p.scenario.clone(),
+                found: p.scenario_hash.clone(),
+                expected: s.hash.clone(),
+            });
+        }
+        if p.shard.count != count {
+            return Err(MergeError::ShardCount {
+                file: file.clone(),
+                index: p.shard.index,
+                count: p.shard.count,
+                expected: count,
+            });
+        }
+        let k = (p.shard.index - 1) as usize;
+        if let Some(prev) = seen[k] {
+            return Err(MergeError::Duplicate {
+                index: p.shard.index,
+                count,
+                first: prev.to_string(),
+                second: file.clone(),
+            });
+        }
+        seen[k] = Some(file);
+        if !p.complete() {
+            return Err(MergeError::Incomplete {
+                file: file.clone(),
+                index: p.shard.index,
+                count,
+                done: p.done - p.shard.range(p.samples).0,
+            });
+        }
+    }
+    let missing: Vec<String> = (0..count as usize)
+        .filter(|&k| seen[k].is_none())
+        .map(|k| (k + 1).to_string())
+        .collect();
+    if !missing.is_empty() {
+        let have: Vec<String> = (0..count as usize)
+            .filter(|&k| seen[k].is_some())
+            .map(|k| (k + 1).to_string())
+            .collect();
+        return Err(MergeError::Missing {
+            missing: missing.join(", "),
+            count,
+            have: have.join(", "),
+        });
+    }
+    Ok(())
+}
+
+/// Builds the final result of `s` from complete, checked partials, with `git_commit` recorded.
+pub fn finish(s: &Scenario, plan: &Plan, partials: &[Partial], git_commit: &str) -> RunResult {
+    let mut slots: Vec<(crate::unit::Slot, Accumulator)> = plan
+        .slots
+        .iter()
+        .map(|sl| (*sl, Accumulator::new(s.observables[sl.observable].kind)))
+        .collect();
+    let mut wall = 0.0;
+    let mut threads = 0;
+    for p in partials {
+        for ((_, acc), (_, add)) in slots.iter_mut().zip(&p.slots) {
+            acc.merge(add);
+        }
+        wall += p.wall_seconds;
+        threads = threads.max(p.threads);
+    }
+    for (_, acc) in slots.iter_mut() {
+        acc.canonicalize();
+    }
+    let claims = (0..s.claims.len())
+        .map(|ci| {
+            if plan.exact[ci] {
+                crate::exact_decide::decide(s, ci).unwrap_or_else(|e| failed(s, ci, e))
+            } else {
+                crate::evaluate::evaluate(s, ci, &slots)
+            }
+        })
+        .collect();
+    let total: u64 = plan.units.len() as u64 * s.samples;
+    RunResult {
+        schema: SCHEMA.into(),
+        motley_version: crate::VERSION.into(),
+        git_commit: git_commit.into(),
+        scenario: ScenarioInfo {
+            name: s.name.clone(),
+            title: s.title.clone(),
+            description: s.description.clone(),
+            hash: s.hash.clone(),
+            seed: s.seed,
+            samples: s.samples,
+            alpha: s.alpha,
+            power: s.power,
+            shards: partials.first().map_or(1, |p| p.shard.count),
+        },
+        timing: Timing {
+            wall_seconds: wall,
+            threads,
+            samples_per_second: if wall > 0.0 { total as f64 / wall } else { 0.0 },
+        },
+        claims,
+    }
+}
+
+fn failed(s: &Scenario, ci: usize, e: String) -> crate::result::ClaimResult {
+    let c = &s.claims[ci];
+    crate::result::ClaimResult {
+        id: c.id.clone(),
+        kind: "error".into(),
+        says: c.says.clone(),
+        observables: Vec::new(),
+        decided_by: "exact".into(),
+        rejected: false,
+        verdict: format!("exact law unavailable: {e}"),
+        samples: 0,
+        tests: Vec::new(),
+        effect: None,
+        exact: None,
+        estimates: Default::default(),
+    }
+}

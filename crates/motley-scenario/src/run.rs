@@ -1,0 +1,240 @@
+//! Running the Monte Carlo part of a scenario: sample indices split into chunks over threads, every
+//! chunk feeding exactly-merging accumulators.
+//!
+//! # Reproducibility
+//! Sample `i` of a unit depends only on `(unit seed, i)` (see [`crate::unit`]). A shard `K/N` takes
+//! the contiguous index range `[⌊(K−1)·S/N⌋, ⌊K·S/N⌋)` of the `S` samples. Chunks, threads and shards
+//! only decide who computes which index; the accumulators merge exactly, so the result is the same
+//! for every thread count and shard split.
+
+use std::sync::atomic::{AtomicBool, AtomicU64, Ordering};
+use std::time::Instant;
+
+use rayon::prelude::*;
+use serde::{Deserialize, Serialize};
+
+use crate::accumulate::Accumulator;
+use crate::plan::Plan;
+use crate::scenario::{ModelKind, Scenario};
+use crate::unit::{Slot, Unit};
+
+/// Samples per work chunk: the grain of parallelism, progress and checkpoints.
+pub const CHUNK: u64 = 256;
+
+/// Schema name of partial (shard or checkpoint) files.
+pub const PARTIAL_SCHEMA: &str = "motley-partial/1";
+
+/// Which slice of the samples to run.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+pub struct Shard {
+    /// 1-based shard number.
+    pub index: u64,
+    /// Number of shards.
+    pub count: u64,
+}
+
+impl Shard {
+    /// The whole run as one shard.
+    pub const WHOLE: Shard = Shard { index: 1, count: 1 };
+
+    /// Sample index range of this shard among `samples`.
+    pub fn range(&self, samples: u64) -> (u64, u64) {
+        let cut = |k: u64| ((k as u128 * samples as u128) / self.count as u128) as u64;
+        (cut(self.index - 1), cut(self.index))
+    }
+}
+
+/// Accumulated Monte Carlo results of one shard (or of a checkpoint of it).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Partial {
+    /// Always [`PARTIAL_SCHEMA`].
+    pub schema: String,
+    /// motley version that wrote it.
+    pub motley_version: String,
+    /// Scenario name.
+    pub scenario: String,
+    /// Scenario hash.
+    pub scenario_hash: String,
+    /// Samples per side of the whole run.
+    pub samples: u64,
+    /// Which shard.
+    pub shard: Shard,
+    /// Sample indices finished, from the shard's start: `[start, done)`.
+    pub done: u64,
+    /// Accumulators by slot.
+    pub slots: Vec<(Slot, Accumulator)>,
+    /// Seconds spent.
+    pub wall_seconds: f64,
+    /// Threads used.
+    pub threads: usize,
+}
+
+impl Partial {
+    /// An empty partial for `shard`.
+    pub fn empty(s: &Scenario, plan: &Plan, shard: Shard) -> Self {
+        let (start, _) = shard.range(s.samples);
+        Partial {
+            schema: PARTIAL_SCHEMA.into(),
+            motley_version: crate::VERSION.into(),
+            scenario: s.name.clone(),
+            scenario_hash: s.hash.clone(),
+            samples: s.samples,
+            shard,
+            done: start,
+            slots: plan
+                .slots
+                .iter()
+                .map(|sl| (*sl, Accumulator::new(s.observables[sl.observable].kind)))
+                .collect(),
+            wall_seconds: 0.0,
+            threads: 0,
+        }
+    }
+
+    /// Whether every sample of the shard is in.
+    pub fn complete(&self) -> bool {
+        self.done == self.shard.range(self.samples).1
+    }
+}
+
+/// Errors while running.
+#[derive(Debug, Clone, PartialEq, Eq, thiserror::Error)]
+pub enum RunError {
+    /// An engine refused its parameters (validation should have caught it).
+    #[error("model `{model}`: {message}")]
+    Engine {
+        /// Model name.
+        model: String,
+        /// Engine message.
+        message: String,
+    },
+    /// Building the thread pool failed.
+    #[error("cannot start {0} worker threads")]
+    Threads(usize),
+}
+
+/// Per-unit sampler state.
+enum Sampler<'a> {
+    SixVertex(crate::six_vertex_unit::SixVertexUnit<'a>),
+    Exclusion(crate::exclusion_unit::ExclusionUnit<'a>),
+}
+
+fn sampler<'a>(s: &'a Scenario, u: &Unit) -> Result<Sampler<'a>, RunError> {
+    let m = &s.models[u.model];
+    let obs = u.observables.iter().map(|&o| &s.observables[o]).collect();
+    let err = |message: String| RunError::Engine {
+        model: m.name.clone(),
+        message,
+    };
+    Ok(match &m.kind {
+        ModelKind::SixVertex(sv) => Sampler::SixVertex(
+            crate::six_vertex_unit::SixVertexUnit::new(m, sv, obs, false).map_err(err)?,
+        ),
+        ModelKind::Exclusion(ex) => Sampler::Exclusion(
+            crate::exclusion_unit::ExclusionUnit::new(m, ex, obs).map_err(err)?,
+        ),
+    })
+}
+
+/// Runs sample indices `[from, to)` of every unit of `plan` and returns the accumulators, in the
+/// order of `plan.slots`.
+fn run_range(
+    s: &Scenario,
+    plan: &Plan,
+    from: u64,
+    to: u64,
+) -> Result<Vec<Accumulator>, RunError> {
+    let mut out: Vec<Accumulator> = plan
+        .slots
+        .iter()
+        .map(|sl| Accumulator::new(s.observables[sl.observable].kind))
+        .collect();
+    for u in &plan.units {
+        let mut smp = sampler(s, u)?;
+        let positions: Vec<usize> = u
+            .observables
+            .iter()
+            .map(|&o| {
+                plan.slots
+                    .iter()
+                    .position(|sl| sl.observable == o && sl.replica == u.replica)
+                    .expect("every unit observable has a slot")
+            })
+            .collect();
+        let mut local: Vec<Accumulator> = positions.iter().map(|&p| out[p].clone()).collect();
+        for i in from..to {
+            match &mut smp {
+                Sampler::SixVertex(x) => x.sample(u.seed, i, &mut local),
+                Sampler::Exclusion(x) => x.sample(u.seed, i, &mut local),
+            }
+        }
+        for (acc, &p) in local.into_iter().zip(&positions) {
+            out[p] = acc;
+        }
+    }
+    Ok(out)
+}
+
+/// Continues `partial` for up to `budget` more samples (all remaining when `None`), on `threads`
+/// threads, adding finished samples to `progress` and stopping early (at a chunk boundary) when
+/// `stop` is raised. Returns whether the shard is complete.
+///
+/// # Errors
+/// [`RunError`] if an engine cannot be built or the thread pool cannot start.
+pub fn advance(
+    s: &Scenario,
+    plan: &Plan,
+    partial: &mut Partial,
+    threads: usize,
+    progress: &AtomicU64,
+    stop: &AtomicBool,
+    budget: Option<u64>,
+) -> Result<bool, RunError> {
+    let started = Instant::now();
+    let (_, end) = partial.shard.range(s.samples);
+    let until = match budget {
+        Some(b) => (partial.done + b).min(end),
+        None => end,
+    };
+    let pool = rayon::ThreadPoolBuilder::new()
+        .num_threads(threads)
+        .build()
+        .map_err(|_| RunError::Threads(threads))?;
+    // Work proceeds in rounds of a few chunks per thread, so that a stop request is honoured soon
+    // and every round ends on a chunk boundary that a checkpoint can record.
+    let round = CHUNK * 8 * threads as u64;
+    while partial.done < until {
+        if stop.load(Ordering::Relaxed) {
+            break;
+        }
+        let lo = partial.done;
+        let hi = (lo + round).min(until);
+        let chunks: Vec<(u64, u64)> = (lo..hi)
+            .step_by(CHUNK as usize)
+            .map(|a| (a, (a + CHUNK).min(hi)))
+            .collect();
+        let results: Vec<Result<Vec<Accumulator>, RunError>> = pool.install(|| {
+            chunks
+                .par_iter()
+                .map(|&(a, b)| {
+                    let r = run_range(s, plan, a, b);
+                    progress.fetch_add(b - a, Ordering::Relaxed);
+                    r
+                })
+                .collect()
+        });
+        for r in results {
+            let accs = r?;
+            for ((_, acc), add) in partial.slots.iter_mut().zip(&accs) {
+                acc.merge(add);
+            }
+        }
+        partial.done = hi;
+    }
+    for (_, acc) in partial.slots.iter_mut() {
+        acc.canonicalize();
+    }
+    partial.wall_seconds += started.elapsed().as_secs_f64();
+    partial.threads = partial.threads.max(threads);
+    Ok(partial.complete())
+}

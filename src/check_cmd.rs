@@ -1,0 +1,50 @@
+//! `motley check`: validation and a cost estimate, without running anything.
+
+use motley_scenario::cost::estimate;
+use motley_scenario::plan::plan;
+
+use crate::cli::CheckArgs;
+use crate::exit::Failure;
+use crate::input::{load, threads};
+
+fn human_bytes(b: f64) -> String {
+    let mib = b / (1024.0 * 1024.0);
+    if mib < 1024.0 {
+        format!("{mib:.0} MiB")
+    } else {
+        format!("{:.1} GiB", mib / 1024.0)
+    }
+}
+
+fn human_seconds(s: f64) -> String {
+    if s < 90.0 {
+        format!("{s:.1} s")
+    } else if s < 5400.0 {
+        format!("{:.1} min", s / 60.0)
+    } else {
+        format!("{:.1} h", s / 3600.0)
+    }
+}
+
+/// `motley check`.
+pub fn check(a: CheckArgs) -> Result<(), Failure> {
+    let loaded = load(&a.source, a.samples)?;
+    let s = &loaded.scenario;
+    let p = plan(s, &loaded.file).map_err(|e| Failure::BadInput(e.to_string()))?;
+    let t = threads(a.threads)?;
+    println!("{}: valid scenario `{}` ({} models, {} observables, {} claims)", loaded.file, s.name, s.models.len(), s.observables.len(), s.claims.len());
+    for (c, exact) in s.claims.iter().zip(&p.exact) {
+        let how = if *exact { "exact laws" } else { "Monte Carlo" };
+        println!("  claim {:<22} decided by {how}", c.id);
+    }
+    let cost = estimate(s, &p, t);
+    println!(
+        "estimate: {} samples in all ({} units × {}), about {} on {t} threads, peak memory about {}",
+        cost.samples,
+        p.units.len(),
+        s.samples,
+        human_seconds(cost.seconds),
+        human_bytes(cost.bytes)
+    );
+    Ok(())
+}

@@ -1,0 +1,45 @@
+//! `motley merge`: the shards' partial results into the report one run would have given.
+
+use motley_scenario::finish::check_partials;
+use motley_scenario::run::Partial;
+
+use crate::cli::MergeArgs;
+use crate::exit::Failure;
+use crate::input::load_text;
+use crate::run_cmd::{report, PARTIAL_FILE, SCENARIO_FILE};
+
+/// `motley merge`.
+pub fn merge(a: MergeArgs) -> Result<(), Failure> {
+    let mut partials: Vec<(String, Partial)> = Vec::new();
+    let mut scenario: Option<(String, String)> = None;
+    for dir in &a.shards {
+        let file = dir.join(PARTIAL_FILE);
+        let shown = file.display().to_string();
+        let text = std::fs::read_to_string(&file)
+            .map_err(|e| Failure::BadInput(format!("{shown}: cannot read a shard's partial result: {e}")))?;
+        let p: Partial = serde_json::from_str(&text)
+            .map_err(|e| Failure::BadInput(format!("{shown}: not a valid partial result: {e}")))?;
+        if scenario.is_none() {
+            let sf = dir.join(SCENARIO_FILE);
+            let t = std::fs::read_to_string(&sf).map_err(|e| {
+                Failure::BadInput(format!("{}: cannot read the shard's scenario: {e}", sf.display()))
+            })?;
+            scenario = Some((t, sf.display().to_string()));
+        }
+        partials.push((shown, p));
+    }
+    let (text, file) = scenario.ok_or_else(|| Failure::BadInput("nothing to merge".into()))?;
+    let samples = partials.first().map(|(_, p)| p.samples);
+    let loaded = load_text(text, file, samples)?;
+    if let Some((f, p)) = partials.iter().find(|(_, p)| Some(p.samples) != samples) {
+        return Err(Failure::BadInput(format!(
+            "{f}: has {} samples per side, the first shard has {}",
+            p.samples,
+            samples.unwrap_or(0)
+        )));
+    }
+    check_partials(&loaded.scenario, &partials).map_err(|e| Failure::BadInput(e.to_string()))?;
+    let mut sorted: Vec<Partial> = partials.into_iter().map(|(_, p)| p).collect();
+    sorted.sort_by_key(|p| p.shard.index);
+    report(&loaded, &sorted, &a.out, a.overwrite, false)
+}
