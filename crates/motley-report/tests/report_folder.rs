@@ -181,9 +181,15 @@ fn kill_midway_leaves_no_half_written_report() {
     let tmp = tempfile::tempdir().unwrap();
     let dir = tmp.path().join("demo");
     let exe = std::env::current_exe().unwrap();
-    // Kill after several delays, so the kill lands at different stages. Whatever the stage, the final
-    // name holds a complete report or nothing: the assertion does not depend on timing.
-    for delay_ms in [5, 40, 120, 300, 700] {
+    // Kill after several delays spread over a few report writes (one write is timed here only to spread
+    // them), so the kill lands at different stages. Whatever the stage, the final name holds a complete
+    // report or nothing: the assertion does not depend on timing.
+    let probe = tmp.path().join("probe");
+    let start = std::time::Instant::now();
+    write_report(&probe, &big(), &extras(), false).unwrap();
+    let one = start.elapsed().as_millis() as u64;
+    fs::remove_dir_all(&probe).unwrap();
+    for delay_ms in [0.2, 0.7, 1.3, 2.1, 3.4, 5.5].map(|f| 30 + (f * one as f64) as u64) {
         let mut child = Command::new(&exe)
             .args(["--exact", "child_writes_reports_forever", "--ignored", "--nocapture", "--test-threads=1"])
             .env(CHILD_DIR, &dir)
@@ -196,6 +202,9 @@ fn kill_midway_leaves_no_half_written_report() {
         child.wait().unwrap();
         if dir.exists() {
             assert_complete(&dir, &big());
+        }
+        if std::env::var_os("MOTLEY_REPORT_KILL_TRACE").is_some() {
+            eprintln!("kill after {delay_ms} ms: final exists {}, hidden {:?}", dir.exists(), hidden(tmp.path()));
         }
     }
     // The next run succeeds and sweeps the dead children's staging and moved-aside folders.

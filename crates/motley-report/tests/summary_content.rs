@@ -96,7 +96,8 @@ fn summary_has_estimate_tables() {
     assert!(md.contains("| 2 | `{3}` | 0.09 | | |"));
     // Moments: an empty label falls back to the observable's name.
     assert!(md.contains("| top-exits | 20000 | 2.4 | 1.21 |"));
-    assert!(md.contains("| Exact decision"), "exact table heading missing") ;
+    assert!(md.contains("### Exact decision\n\n| Total variation | Numerical error bound | Outcomes enumerated | Exact probability |"));
+    assert!(md.contains("| 0 | 1e-13 | 11 | — |"));
 }
 
 #[test]
