@@ -78,8 +78,10 @@ fn run_mode<const MODE: u8, const RING: bool, O: Observer>(
         } else {
             x + 1
         };
-        let a = sites[x];
-        let b = sites[y];
+        debug_assert!(x < n && y < n);
+        // SAFETY: `below(bonds)` is < bonds ≤ n, so x < n; y is x + 1 < n on the segment
+        // (x < n − 1) and wraps to 0 on the ring.
+        let (a, b) = unsafe { (*sites.get_unchecked(x), *sites.get_unchecked(y)) };
         let lo = a.min(b);
         let hi = a.max(b);
         let (new_left, new_right) = match MODE {
@@ -91,8 +93,11 @@ fn run_mode<const MODE: u8, const RING: bool, O: Observer>(
                 ((lo & m) | (hi & !m), (hi & m) | (lo & !m))
             }
         };
-        sites[x] = new_left;
-        sites[y] = new_right;
+        // SAFETY: as above.
+        unsafe {
+            *sites.get_unchecked_mut(x) = new_left;
+            *sites.get_unchecked_mut(y) = new_right;
+        }
         if O::ACTIVE {
             observer.attempt(x as i64 + 1, right, (a, b), new_right);
         }

@@ -66,7 +66,10 @@ pub fn write_json_atomic<T: Serialize + ?Sized>(path: &Path, value: &T) -> Resul
 }
 
 /// Pretty JSON with a trailing newline.
-pub(crate) fn json_text<T: Serialize + ?Sized>(path: &Path, value: &T) -> Result<String, ReportError> {
+pub(crate) fn json_text<T: Serialize + ?Sized>(
+    path: &Path,
+    value: &T,
+) -> Result<String, ReportError> {
     let mut text = serde_json::to_string_pretty(value).map_err(|source| ReportError::Json {
         path: path.to_path_buf(),
         source,
@@ -254,7 +257,8 @@ fn sweep_leftovers(parent: &Path, name: &str) {
         let Some(entry_name) = file_name.to_str() else {
             continue;
         };
-        let owner = temp_owner(entry_name, name, PARTIAL).or_else(|| temp_owner(entry_name, name, OLD));
+        let owner =
+            temp_owner(entry_name, name, PARTIAL).or_else(|| temp_owner(entry_name, name, OLD));
         if let Some(pid) = owner {
             if process_gone(pid) {
                 let _ = fs::remove_dir_all(entry.path());

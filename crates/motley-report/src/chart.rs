@@ -39,6 +39,8 @@ pub(crate) struct ChartSpec {
     pub legend: SeriesLabelPosition,
     /// Labels for the integer abscissae 0, 1, …, when the axis is categorical.
     pub categories: Option<Vec<String>>,
+    /// Label only integer ticks of the horizontal axis (elements, sizes).
+    pub integer_x: bool,
 }
 
 /// A plotters colour from ours.
@@ -66,9 +68,12 @@ fn thin(n: usize) -> Vec<usize> {
     idx
 }
 
+/// A drawable point: abscissa, estimate and, when known, its (lower, upper) bounds.
+type Point = (f64, f64, Option<(f64, f64)>);
+
 /// The finite points `(x, y, band)` of a series, thinned; `band` is `Some((lower, upper))` when the
 /// series has bounds for every point.
-fn points(s: &Series) -> Vec<(f64, f64, Option<(f64, f64)>)> {
+fn points(s: &Series) -> Vec<Point> {
     let n = s.x.len().min(s.y.len());
     let has_band = s.lower.len() == s.y.len() && s.upper.len() == s.y.len();
     thin(n)
@@ -103,7 +108,9 @@ fn steps(pts: &[(f64, f64)]) -> Vec<(f64, f64)> {
 fn span(values: impl Iterator<Item = f64>, frac: f64, pad_single: f64) -> (f64, f64) {
     let (lo, hi) = values
         .filter(|v| v.is_finite())
-        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| (a.min(v), b.max(v)));
+        .fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
+            (a.min(v), b.max(v))
+        });
     if !lo.is_finite() {
         return (0.0, 1.0);
     }
@@ -150,7 +157,10 @@ pub(crate) fn curves(
         let root = SVGBackend::with_string(&mut buf, SIZE).into_drawing_area();
         root.fill(&WHITE).map_err(&err)?;
         let mut chart = ChartBuilder::on(&root)
-            .caption(&spec.title, ("sans-serif", 22).into_font().color(&rgb(palette::INK)))
+            .caption(
+                &spec.title,
+                ("sans-serif", 22).into_font().color(&rgb(palette::INK)),
+            )
             .margin(18)
             .x_label_area_size(54)
             .y_label_area_size(72)
@@ -183,7 +193,9 @@ pub(crate) fn curves(
                 .draw_series(LineSeries::new(line, c.stroke_width(2)))
                 .map_err(&err)?
                 .label(s.label.clone())
-                .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(3)));
+                .legend(move |(x, y)| {
+                    PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(3))
+                });
         }
         if let Some(r) = reference {
             let c = rgb(palette::REFERENCE);
@@ -192,7 +204,9 @@ pub(crate) fn curves(
                 .draw_series(DashedLineSeries::new(line, 8, 5, c.stroke_width(2)))
                 .map_err(&err)?
                 .label(r.label.clone())
-                .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(2)));
+                .legend(move |(x, y)| {
+                    PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(2))
+                });
         }
         legend(&mut chart, spec).map_err(&err)?;
         root.present().map_err(&err)?;
@@ -218,7 +232,11 @@ pub(crate) fn bars(
         .windows(2)
         .map(|w| w[1] - w[0])
         .fold(f64::INFINITY, f64::min);
-    let gap = if gap.is_finite() && gap > 0.0 { gap } else { 1.0 };
+    let gap = if gap.is_finite() && gap > 0.0 {
+        gap
+    } else {
+        1.0
+    };
     let ref_x = reference
         .into_iter()
         .flat_map(|s| points(s).into_iter().map(|p| p.0));
@@ -245,7 +263,10 @@ pub(crate) fn bars(
         let root = SVGBackend::with_string(&mut buf, SIZE).into_drawing_area();
         root.fill(&WHITE).map_err(&err)?;
         let mut chart = ChartBuilder::on(&root)
-            .caption(&spec.title, ("sans-serif", 22).into_font().color(&rgb(palette::INK)))
+            .caption(
+                &spec.title,
+                ("sans-serif", 22).into_font().color(&rgb(palette::INK)),
+            )
             .margin(18)
             .x_label_area_size(54)
             .y_label_area_size(72)
@@ -259,7 +280,9 @@ pub(crate) fn bars(
                 .draw_series(DashedLineSeries::new(line, 8, 5, c.stroke_width(2)))
                 .map_err(&err)?
                 .label(r.label.clone())
-                .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(2)));
+                .legend(move |(x, y)| {
+                    PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(2))
+                });
         }
         for (j, s) in sides.iter().enumerate() {
             let c = rgb(palette::side(j));
@@ -305,12 +328,20 @@ fn mesh(
     spec: &ChartSpec,
 ) -> Result<(), DrawingAreaErrorKind<std::io::Error>> {
     let categories = spec.categories.clone();
+    let integer_x = spec.integer_x;
     let fmt = move |x: &f64| -> String {
         match &categories {
             Some(labels) => {
                 let k = x.round();
                 if (x - k).abs() < 1e-6 && k >= 0.0 && (k as usize) < labels.len() {
                     labels[k as usize].clone()
+                } else {
+                    String::new()
+                }
+            }
+            None if integer_x => {
+                if (x - x.round()).abs() < 1e-9 {
+                    plain(*x)
                 } else {
                     String::new()
                 }
@@ -381,6 +412,7 @@ mod tests {
             y_range: Some((0.0, 1.0)),
             legend: SeriesLabelPosition::LowerRight,
             categories: None,
+            integer_x: false,
         }
     }
 
@@ -420,7 +452,14 @@ mod tests {
         let svg = curves(&spec(), &[&a, &b], Some(&r), true, Path::new("x.svg")).unwrap();
         assert!(svg.starts_with("<svg"), "{}", &svg[..40]);
         assert!(svg.trim_end().ends_with("</svg>"));
-        for text in ["value x", "P(X ≤ x)", "side A", "side B", "reference", "T &lt;1&gt;"] {
+        for text in [
+            "value x",
+            "P(X ≤ x)",
+            "side A",
+            "side B",
+            "reference",
+            "T &lt;1&gt;",
+        ] {
             assert!(svg.contains(text), "missing {text}");
         }
         // Both side colours and the reference grey are used.
@@ -438,7 +477,12 @@ mod tests {
         let a = series("side A", vec![1.0, 2.0, 3.0], vec![0.2, 0.5, 0.3], 0.05);
         let mut sp = spec();
         sp.y_range = None;
-        sp.categories = Some(vec!["t = 0".into(), "t = 1".into(), "t = 2".into(), "t = 3".into()]);
+        sp.categories = Some(vec![
+            "t = 0".into(),
+            "t = 1".into(),
+            "t = 2".into(),
+            "t = 3".into(),
+        ]);
         let svg = bars(&sp, &[&a], None, Path::new("x.svg")).unwrap();
         assert!(svg.contains("t = 2"));
         assert_eq!(svg.matches("<circle").count(), 3 + 1); // three points and the legend mark

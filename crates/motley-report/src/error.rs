@@ -73,7 +73,11 @@ pub enum ReportError {
 
 impl ReportError {
     /// Wraps an I/O error with the action and path.
-    pub(crate) fn io(action: &'static str, path: impl Into<PathBuf>, source: std::io::Error) -> Self {
+    pub(crate) fn io(
+        action: &'static str,
+        path: impl Into<PathBuf>,
+        source: std::io::Error,
+    ) -> Self {
         ReportError::Io {
             action,
             path: path.into(),

@@ -34,18 +34,21 @@ pub(crate) fn stems(claims: &[ClaimResult]) -> Vec<String> {
     claims
         .iter()
         .map(|c| {
-            let base: String = c
-                .id
-                .chars()
-                .map(|ch| {
-                    if ch.is_ascii_alphanumeric() || ch == '-' || ch == '_' {
-                        ch
-                    } else {
-                        '-'
-                    }
-                })
-                .collect();
-            let base = if base.is_empty() { "claim".to_string() } else { base };
+            let base: String =
+                c.id.chars()
+                    .map(|ch| {
+                        if ch.is_ascii_alphanumeric() || ch == '-' || ch == '_' {
+                            ch
+                        } else {
+                            '-'
+                        }
+                    })
+                    .collect();
+            let base = if base.is_empty() {
+                "claim".to_string()
+            } else {
+                base
+            };
             let mut stem = base.clone();
             let mut k = 2;
             while !used.insert(stem.clone()) {
@@ -90,21 +93,37 @@ pub(crate) fn draw_claim(
     let est = &claim.estimates;
     let level = crate::format::num(100.0 * (1.0 - alpha));
     let mut out = Vec::new();
-    let mut emit = |kind: &str, title: String, caption: String, svg: &dyn Fn(&Path) -> Result<String, ReportError>| -> Result<(), ReportError> {
+    let mut emit = |kind: &str,
+                    title: String,
+                    caption: String,
+                    svg: &dyn Fn(&Path) -> Result<String, ReportError>|
+     -> Result<(), ReportError> {
         let file = format!("figures/{stem}-{kind}.svg");
         let path = report_dir.join(&file);
         let text = svg(&path)?;
         crate::atomic::write_synced(&path, text.as_bytes())?;
-        out.push(Figure { file, title, caption });
+        out.push(Figure {
+            file,
+            title,
+            caption,
+        });
         Ok(())
     };
 
     let ecdf = labelled(claim, &est.ecdf);
     if !ecdf.is_empty() {
-        let reference = est.reference.as_ref().filter(|r| chart::drawable(r)).map(|r| Series {
-            label: if r.label.trim().is_empty() { "reference".into() } else { r.label.clone() },
-            ..r.clone()
-        });
+        let reference = est
+            .reference
+            .as_ref()
+            .filter(|r| chart::drawable(r))
+            .map(|r| Series {
+                label: if r.label.trim().is_empty() {
+                    "reference".into()
+                } else {
+                    r.label.clone()
+                },
+                ..r.clone()
+            });
         let title = match &reference {
             Some(_) => format!("{}: empirical CDF against the reference", claim.id),
             None => format!("{}: empirical CDF", claim.id),
@@ -120,9 +139,12 @@ pub(crate) fn draw_claim(
             y_range: Some((-0.02, 1.02)),
             legend: SeriesLabelPosition::LowerRight,
             categories: None,
+            integer_x: false,
         };
         let sides: Vec<&Series> = ecdf.iter().collect();
-        emit("ecdf", title, caption, &|p| chart::curves(&spec, &sides, reference.as_ref(), true, p))?;
+        emit("ecdf", title, caption, &|p| {
+            chart::curves(&spec, &sides, reference.as_ref(), true, p)
+        })?;
     }
 
     let inclusion = labelled(claim, &est.inclusion);
@@ -135,12 +157,15 @@ pub(crate) fn draw_claim(
             y_range: None,
             legend: SeriesLabelPosition::UpperRight,
             categories: None,
+            integer_x: integral(&inclusion),
         };
         let caption = format!(
             "Probability that each element belongs to the set, per side, with {level}% intervals (bars)."
         );
         let sides: Vec<&Series> = inclusion.iter().collect();
-        emit("inclusion", title, caption, &|p| chart::bars(&spec, &sides, None, p))?;
+        emit("inclusion", title, caption, &|p| {
+            chart::bars(&spec, &sides, None, p)
+        })?;
     }
 
     let size_law = labelled(claim, &est.size_law);
@@ -153,10 +178,15 @@ pub(crate) fn draw_claim(
             y_range: None,
             legend: SeriesLabelPosition::UpperRight,
             categories: None,
+            integer_x: integral(&size_law),
         };
-        let caption = format!("Law of the number of elements in the set, per side, with {level}% intervals (bars).");
+        let caption = format!(
+            "Law of the number of elements in the set, per side, with {level}% intervals (bars)."
+        );
         let sides: Vec<&Series> = size_law.iter().collect();
-        emit("size-law", title, caption, &|p| chart::bars(&spec, &sides, None, p))?;
+        emit("size-law", title, caption, &|p| {
+            chart::bars(&spec, &sides, None, p)
+        })?;
     }
 
     if est.probabilities.len() >= 2 {
@@ -173,34 +203,60 @@ pub(crate) fn draw_claim(
             y_range: None,
             legend: SeriesLabelPosition::LowerRight,
             categories,
+            integer_x: false,
         };
         let caption = format!(
             "Estimated probabilities with {level}% Wilson intervals (bars){}.",
-            if reference.is_some() { "; dashed grey: the reference curve" } else { "" }
+            if reference.is_some() {
+                "; dashed grey: the reference curve"
+            } else {
+                ""
+            }
         );
-        emit("probabilities", title, caption, &|p| chart::bars(&spec, &[&series], reference, p))?;
+        emit("probabilities", title, caption, &|p| {
+            chart::bars(&spec, &[&series], reference, p)
+        })?;
     }
     Ok(out)
+}
+
+/// Whether every abscissa of every series is an integer.
+fn integral(list: &[Series]) -> bool {
+    list.iter()
+        .flat_map(|s| &s.x)
+        .all(|x| !x.is_finite() || x.fract() == 0.0)
 }
 
 /// The probabilities as one series, against a parameter read off the labels when possible; returns
 /// the series, the axis label and the category labels (when categorical).
 fn probability_series(list: &[Interval]) -> (Series, String, Option<Vec<String>>) {
-    let parsed: Vec<Option<(String, f64)>> = list.iter().map(|i| trailing_number(&i.label)).collect();
+    let parsed: Vec<Option<(String, f64)>> =
+        list.iter().map(|i| trailing_number(&i.label)).collect();
     let numeric = parsed.iter().all(Option::is_some) && {
         let mut xs: Vec<f64> = parsed.iter().map(|p| p.as_ref().unwrap().1).collect();
         xs.sort_by(f64::total_cmp);
         xs.windows(2).all(|w| w[0] < w[1])
     };
     let (x, x_desc, categories) = if numeric {
-        let prefixes: BTreeSet<&str> = parsed.iter().map(|p| p.as_ref().unwrap().0.as_str()).collect();
+        let prefixes: BTreeSet<&str> = parsed
+            .iter()
+            .map(|p| p.as_ref().unwrap().0.as_str())
+            .collect();
         let name = if prefixes.len() == 1 {
             prefixes.into_iter().next().unwrap().to_string()
         } else {
             String::new()
         };
-        let name = if name.is_empty() { "parameter".to_string() } else { name };
-        (parsed.iter().map(|p| p.as_ref().unwrap().1).collect(), name, None)
+        let name = if name.is_empty() {
+            "parameter".to_string()
+        } else {
+            name
+        };
+        (
+            parsed.iter().map(|p| p.as_ref().unwrap().1).collect(),
+            name,
+            None,
+        )
     } else {
         (
             (0..list.len()).map(|i| i as f64).collect(),
@@ -222,7 +278,9 @@ fn probability_series(list: &[Interval]) -> (Series, String, Option<Vec<String>>
 /// and the text before it, trimmed of spaces and `=`.
 fn trailing_number(label: &str) -> Option<(String, f64)> {
     let label = label.trim();
-    let cut = label.rfind(|c: char| c.is_whitespace() || c == '=').map_or(0, |i| i + 1);
+    let cut = label
+        .rfind(|c: char| c.is_whitespace() || c == '=')
+        .map_or(0, |i| i + 1);
     let value: f64 = label[cut..].parse().ok()?;
     if !value.is_finite() {
         return None;

@@ -45,7 +45,11 @@ pub(crate) fn side(i: usize) -> Rgb {
 
 /// The colour at position `t` in [0, 1] of the continuous scale (clamped), by linear interpolation.
 pub(crate) fn scale(t: f64) -> Rgb {
-    let t = if t.is_finite() { t.clamp(0.0, 1.0) } else { 0.0 };
+    let t = if t.is_finite() {
+        t.clamp(0.0, 1.0)
+    } else {
+        0.0
+    };
     let pos = t * (SCALE.len() - 1) as f64;
     let i = (pos.floor() as usize).min(SCALE.len() - 2);
     let f = pos - i as f64;

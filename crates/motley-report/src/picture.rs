@@ -62,7 +62,12 @@ impl Picture {
         }
         let cells = match self.width.checked_mul(self.height) {
             Some(c) => c,
-            None => return bad(format!("grid {} × {} is too large", self.width, self.height)),
+            None => {
+                return bad(format!(
+                    "grid {} × {} is too large",
+                    self.width, self.height
+                ))
+            }
         };
         for (name, len, want) in [
             ("left", self.left.len(), self.height),
@@ -165,7 +170,10 @@ pub(crate) mod tests {
         let mut p = small();
         p.max_color = 3;
         let e = p.validate().unwrap_err().to_string();
-        assert!(e.contains("`bottom[2]` is color 4, above max_color 3"), "{e}");
+        assert!(
+            e.contains("`bottom[2]` is color 4, above max_color 3"),
+            "{e}"
+        );
     }
 
     #[test]

@@ -35,7 +35,11 @@ pub(crate) struct DrawnPicture {
 }
 
 /// Draws `pic` into `figures/` under `report_dir`, with `caption` describing the sample.
-pub(crate) fn draw(pic: &Picture, report_dir: &Path, caption: &str) -> Result<DrawnPicture, ReportError> {
+pub(crate) fn draw(
+    pic: &Picture,
+    report_dir: &Path,
+    caption: &str,
+) -> Result<DrawnPicture, ReportError> {
     let (w, h) = (pic.width, pic.height);
     if w <= SVG_LIMIT && h <= SVG_LIMIT {
         let rel = "figures/sample.svg".to_string();
@@ -73,11 +77,13 @@ pub(crate) fn draw(pic: &Picture, report_dir: &Path, caption: &str) -> Result<Dr
 /// SVG of the window `0..cols` × `0..rows` of `pic` (window starts at the lower-left corner).
 pub(crate) fn svg(pic: &Picture, cols: usize, rows: usize, caption: &str) -> String {
     let span = cols.max(rows) + 1;
-    let cell = (640 / span).clamp(6, 40) as f64;
-    let (left, top, bottom, right) = (56.0, 56.0, 96.0, 24.0);
+    let cell = (640 / span).clamp(6, 60) as f64;
+    let (top, bottom) = (56.0, 96.0);
     let grid_w = (cols + 1) as f64 * cell;
     let grid_h = (rows + 1) as f64 * cell;
-    let width = left + grid_w + right;
+    // At least wide enough for the title and the color bar; the grid is centred.
+    let width = (56.0 + grid_w + 24.0).max(560.0);
+    let left = ((width - grid_w) / 2.0).max(56.0);
     let height = top + grid_h + bottom;
     // Vertex (x, y) sits at (px(x), py(y)); boundary edges reach one cell beyond the outer vertices.
     let px = |x: f64| left + (x + 1.0) * cell;
@@ -167,7 +173,7 @@ pub(crate) fn svg(pic: &Picture, cols: usize, rows: usize, caption: &str) -> Str
         left + grid_w / 2.0,
         top + grid_h + 34.0
     );
-    let (ly, lx) = (top + grid_h / 2.0, 24.0);
+    let (ly, lx) = (top + grid_h / 2.0, (left - 36.0).max(16.0));
     let _ = writeln!(
         s,
         r#"<text x="{lx:.1}" y="{ly:.1}" text-anchor="middle" font-size="14" fill="{ink}" transform="rotate(-90 {lx:.1} {ly:.1})">row y (from the bottom)</text>"#
@@ -246,9 +252,8 @@ pub(crate) fn pixels(pic: &Picture, cols: usize, rows: usize) -> (Vec<u8>, usize
     // A strip of one quadrant along the left and bottom shows the boundary colors.
     let (iw, ih) = (cols * s + q, rows * s + q);
     let mut img = vec![255u8; iw * ih * 3];
-    let colour = |c: u32| -> Option<Rgb> {
-        (c != 0).then(|| palette::path_color(c, pic.max_color))
-    };
+    let colour =
+        |c: u32| -> Option<Rgb> { (c != 0).then(|| palette::path_color(c, pic.max_color)) };
     let mut fill = |x0: usize, y0_from_bottom: usize, c: Option<Rgb>| {
         let Some((r, g, b)) = c else { return };
         for dy in 0..q {
@@ -370,7 +375,10 @@ mod tests {
         let dir = tempfile::tempdir().unwrap();
         std::fs::create_dir(dir.path().join("figures")).unwrap();
         let drawn = draw(&pic, dir.path(), "straight rows").unwrap();
-        assert_eq!(drawn.files, vec!["figures/sample.png", "figures/sample-corner.svg"]);
+        assert_eq!(
+            drawn.files,
+            vec!["figures/sample.png", "figures/sample-corner.svg"]
+        );
         let png_bytes = std::fs::read(dir.path().join("figures/sample.png")).unwrap();
         assert_eq!(&png_bytes[..8], b"\x89PNG\r\n\x1a\n");
         let corner = std::fs::read_to_string(dir.path().join("figures/sample-corner.svg")).unwrap();

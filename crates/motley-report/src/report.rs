@@ -87,7 +87,10 @@ pub fn write_report(
     let root = staging.path().to_path_buf();
 
     let json_path = root.join(files::RESULT);
-    write_synced(&json_path, json_text(&dir.join(files::RESULT), result)?.as_bytes())?;
+    write_synced(
+        &json_path,
+        json_text(&dir.join(files::RESULT), result)?.as_bytes(),
+    )?;
     write_synced(&root.join(files::SCENARIO), extras.scenario_text.as_bytes())?;
 
     let fig_dir = root.join(files::FIGURES);
@@ -95,20 +98,32 @@ pub fn write_report(
     let stems = crate::figures::stems(&result.claims);
     let mut figures = Vec::with_capacity(result.claims.len());
     for (claim, stem) in result.claims.iter().zip(&stems) {
-        figures.push(crate::figures::draw_claim(claim, stem, result.scenario.alpha, &root)?);
+        figures.push(crate::figures::draw_claim(
+            claim,
+            stem,
+            result.scenario.alpha,
+            &root,
+        )?);
     }
     let picture = match &extras.picture {
         Some(p) => {
             let caption = if extras.picture_caption.trim().is_empty() {
                 "One sample configuration; each path colored by its color".to_string()
             } else {
-                extras.picture_caption.trim().trim_end_matches('.').to_string()
+                extras
+                    .picture_caption
+                    .trim()
+                    .trim_end_matches('.')
+                    .to_string()
             };
             Some(crate::picture_draw::draw(p, &root, &caption)?)
         }
         None => None,
     };
-    if fs::read_dir(&fig_dir).map(|mut d| d.next().is_none()).unwrap_or(false) {
+    if fs::read_dir(&fig_dir)
+        .map(|mut d| d.next().is_none())
+        .unwrap_or(false)
+    {
         let _ = fs::remove_dir(&fig_dir);
     } else {
         sync_dir(&fig_dir);

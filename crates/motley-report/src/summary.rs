@@ -41,6 +41,11 @@ fn is_describe(claim: &ClaimResult) -> bool {
     claim.kind == "describe"
 }
 
+/// Whether `claim` was put to a test or an exact decision (and so could raise a false alarm).
+fn is_tested(claim: &ClaimResult) -> bool {
+    !is_describe(claim) && (is_exact(claim) || !claim.tests.is_empty())
+}
+
 /// The verdict of one claim in fixed words, e.g. `not rejected at α = 0.01` or
 /// `holds exactly (total variation 0 up to 1e-13)`.
 pub fn verdict_line(claim: &ClaimResult, alpha: f64) -> String {
@@ -66,6 +71,9 @@ pub fn verdict_line(claim: &ClaimResult, alpha: f64) -> String {
                 num(tv)
             ),
         };
+    }
+    if claim.tests.is_empty() && !claim.rejected {
+        return "estimated (no test: nothing stated to test against)".into();
     }
     if claim.rejected {
         format!("REJECTED at α = {a}")
@@ -173,8 +181,15 @@ fn overview(s: &mut String, result: &RunResult, stems: &[String]) {
     for (claim, stem) in result.claims.iter().zip(stems) {
         let p = smallest_adjusted(claim).map_or("—".into(), p_value);
         let effect = match (&claim.exact, &claim.effect) {
-            (Some(ex), _) if is_exact(claim) => format!("total variation {}", num(ex.total_variation)),
-            (_, Some(e)) => format!("{} {} (≤ {})", e.measure, num(e.estimate), num(e.upper_bound)),
+            (Some(ex), _) if is_exact(claim) => {
+                format!("total variation {}", num(ex.total_variation))
+            }
+            (_, Some(e)) => format!(
+                "{} {} (≤ {})",
+                e.measure,
+                num(e.estimate),
+                num(e.upper_bound)
+            ),
             _ => "—".into(),
         };
         let _ = writeln!(
@@ -193,7 +208,13 @@ fn overview(s: &mut String, result: &RunResult, stems: &[String]) {
 }
 
 /// One claim: words, verdict, tests, effect, exact decision, estimates, figures.
-fn claim_section(s: &mut String, result: &RunResult, claim: &ClaimResult, stem: &str, figures: &[Figure]) {
+fn claim_section(
+    s: &mut String,
+    result: &RunResult,
+    claim: &ClaimResult,
+    stem: &str,
+    figures: &[Figure],
+) {
     let alpha = result.scenario.alpha;
     let _ = writeln!(s, "<a id=\"{}\"></a>\n", anchor(stem));
     let _ = writeln!(s, "## Claim {}\n", code(&claim.id));
@@ -211,14 +232,23 @@ fn claim_section(s: &mut String, result: &RunResult, claim: &ClaimResult, stem: 
     let obs = if claim.observables.is_empty() {
         "none".to_string()
     } else {
-        claim.observables.iter().map(|o| code(o)).collect::<Vec<_>>().join(", ")
+        claim
+            .observables
+            .iter()
+            .map(|o| code(o))
+            .collect::<Vec<_>>()
+            .join(", ")
     };
     let samples = if is_exact(claim) {
         "decided by exact enumeration".to_string()
     } else {
         format!("{} samples per side", claim.samples)
     };
-    let _ = writeln!(s, "Kind: {} · observables: {obs} · {samples}.\n", code(&claim.kind));
+    let _ = writeln!(
+        s,
+        "Kind: {} · observables: {obs} · {samples}.\n",
+        code(&claim.kind)
+    );
 
     if !claim.tests.is_empty() {
         let _ = writeln!(s, "### Tests\n");
@@ -237,7 +267,11 @@ fn claim_section(s: &mut String, result: &RunResult, claim: &ClaimResult, stem: 
                 t.dof.map_or("—".into(), num),
                 p_value(t.p_value),
                 p_value(t.adjusted_p_value),
-                if t.rejected { "**rejects**" } else { "does not reject" },
+                if t.rejected {
+                    "**rejects**"
+                } else {
+                    "does not reject"
+                },
                 cell(&t.note)
             );
         }
@@ -294,7 +328,10 @@ fn claim_section(s: &mut String, result: &RunResult, claim: &ClaimResult, stem: 
 
     if let Some(ex) = &claim.exact {
         let _ = writeln!(s, "### Exact decision\n");
-        let _ = writeln!(s, "| Total variation | Numerical error bound | Outcomes enumerated | Exact probability |");
+        let _ = writeln!(
+            s,
+            "| Total variation | Numerical error bound | Outcomes enumerated | Exact probability |"
+        );
         let _ = writeln!(s, "|---|---|---|---|");
         let _ = writeln!(
             s,
@@ -340,7 +377,12 @@ fn estimates(s: &mut String, claim: &ClaimResult) {
         }
         s.push('\n');
     }
-    let tops: Vec<_> = est.top_outcomes.iter().enumerate().filter(|(_, t)| !t.is_empty()).collect();
+    let tops: Vec<_> = est
+        .top_outcomes
+        .iter()
+        .enumerate()
+        .filter(|(_, t)| !t.is_empty())
+        .collect();
     if !tops.is_empty() {
         let _ = writeln!(s, "### Most frequent outcomes\n");
         let mut head = String::from("| Rank |");
@@ -429,7 +471,7 @@ fn reproduce(s: &mut String, result: &RunResult, extras: &ReportExtras) {
 /// What a run can and cannot show.
 fn limits(s: &mut String, result: &RunResult) {
     let a = short(result.scenario.alpha);
-    let k = result.claims.iter().filter(|c| !is_describe(c)).count();
+    let k = result.claims.iter().filter(|c| is_tested(c)).count();
     let _ = writeln!(s, "## Limits\n");
     let _ = writeln!(
         s,

@@ -38,8 +38,13 @@ fn each_claim_gets_the_figures_its_data_allows() {
 fn no_figure_folder_without_figures() {
     let tmp = tempfile::tempdir().unwrap();
     let dir = tmp.path().join("rep");
-    write_report(&dir, &common::run(vec![common::describe("corner")]), &ReportExtras::default(), false)
-        .unwrap();
+    write_report(
+        &dir,
+        &common::run(vec![common::describe("corner")]),
+        &ReportExtras::default(),
+        false,
+    )
+    .unwrap();
     assert!(!dir.join("figures").exists());
     let md = fs::read_to_string(dir.join("summary.md")).unwrap();
     assert!(!md.contains("### Figures"));
@@ -54,20 +59,49 @@ fn svgs_are_well_formed_and_labelled() {
     let expect: [(&str, &[&str]); 6] = [
         (
             "rainbow-top-ecdf.svg",
-            &["rainbow-top: empirical CDF", "value x", "P(X ≤ x)", "top-exits", "transposed-occupation"],
+            &[
+                "rainbow-top: empirical CDF",
+                "value x",
+                "P(X ≤ x)",
+                "top-exits",
+                "transposed-occupation",
+            ],
         ),
         (
             "rainbow-top-inclusion.svg",
             // The second inclusion series has no label: the observable's name stands in.
-            &["per-element inclusion probability", "element", "P(element in the set)", "transposed-occupation"],
+            &[
+                "per-element inclusion probability",
+                "element",
+                "P(element in the set)",
+                "transposed-occupation",
+            ],
         ),
-        ("rainbow-top-size-law.svg", &["law of the set size", "set size k", "P(size = k)"]),
+        (
+            "rainbow-top-size-law.svg",
+            &["law of the set size", "set size k", "P(size = k)"],
+        ),
         (
             "second-class-ecdf.svg",
-            &["empirical CDF against the reference", "density profile tail", "exact law"],
+            &[
+                "empirical CDF against the reference",
+                "density profile tail",
+                "exact law",
+            ],
         ),
-        ("swap-probabilities.svg", &["event probabilities", "probability", ">\nt\n<", "limit 2/3"]),
-        ("sample.svg", &["colored paths on the 2 × 2 grid", "column x", "row y (from the bottom)", "color 2"]),
+        (
+            "swap-probabilities.svg",
+            &["event probabilities", "probability", ">\nt\n<", "limit 2/3"],
+        ),
+        (
+            "sample.svg",
+            &[
+                "colored paths on the 2 × 2 grid",
+                "column x",
+                "row y (from the bottom)",
+                "color 2",
+            ],
+        ),
     ];
     for (file, texts) in expect {
         let svg = fs::read_to_string(dir.join("figures").join(file)).unwrap();
@@ -82,8 +116,13 @@ fn svgs_are_well_formed_and_labelled() {
 fn ecdf_figure_shows_bands_in_side_colours() {
     let tmp = tempfile::tempdir().unwrap();
     let dir = tmp.path().join("rep");
-    write_report(&dir, &common::run(vec![common::same_law("c", false, 0.01)]), &ReportExtras::default(), false)
-        .unwrap();
+    write_report(
+        &dir,
+        &common::run(vec![common::same_law("c", false, 0.01)]),
+        &ReportExtras::default(),
+        false,
+    )
+    .unwrap();
     let svg = fs::read_to_string(dir.join("figures/c-ecdf.svg")).unwrap();
     // One shaded band per side, teal and burnt orange.
     assert_eq!(svg.matches("<polygon").count(), 2);

@@ -14,7 +14,10 @@ use motley_scenario::result::RunResult;
 const SCENARIO: &str = "name: demo-rainbow\nseed: 20240611\n";
 
 fn extras() -> ReportExtras {
-    ReportExtras::new(SCENARIO, vec!["motley".into(), "run".into(), "demo.yaml".into()])
+    ReportExtras::new(
+        SCENARIO,
+        vec!["motley".into(), "run".into(), "demo.yaml".into()],
+    )
 }
 
 /// Hidden entries (staging or moved-aside folders) left in `parent`.
@@ -31,7 +34,10 @@ fn assert_complete(dir: &Path, expected: &RunResult) {
     // Compared as text: serde_json without its `float_roundtrip` feature may parse an f64 one unit in
     // the last place off, so a parse-and-compare would fail on a correct file.
     let json = fs::read_to_string(dir.join("result.json")).unwrap();
-    assert!(json == serde_json::to_string_pretty(expected).unwrap() + "\n", "result.json differs");
+    assert!(
+        json == serde_json::to_string_pretty(expected).unwrap() + "\n",
+        "result.json differs"
+    );
     let parsed: RunResult = serde_json::from_str(&json).unwrap();
     assert_eq!(parsed.claims.len(), expected.claims.len());
     let md = fs::read_to_string(dir.join("summary.md")).unwrap();
@@ -39,7 +45,10 @@ fn assert_complete(dir: &Path, expected: &RunResult) {
         md.ends_with("only the claims above are tested.\n"),
         "summary.md is truncated"
     );
-    assert_eq!(fs::read_to_string(dir.join("scenario.yaml")).unwrap(), SCENARIO);
+    assert_eq!(
+        fs::read_to_string(dir.join("scenario.yaml")).unwrap(),
+        SCENARIO
+    );
 }
 
 #[test]
@@ -57,9 +66,12 @@ fn report_has_result_json_summary_and_scenario() {
     let v: serde_json::Value = serde_json::from_str(&json).unwrap();
     assert_eq!(v["claims"][1]["id"], "near miss");
     assert_eq!(v["claims"][1]["rejected"], true);
-    assert_eq!(v["claims"][0]["tests"][0]["name"], "chi-square on the joint law");
+    assert_eq!(
+        v["claims"][0]["tests"][0]["name"],
+        "chi-square on the joint law"
+    );
     assert_eq!(v["claims"][2]["exact"]["total_variation"], 0.0);
-    assert!(hidden(&dir.parent().unwrap()).is_empty());
+    assert!(hidden(dir.parent().unwrap()).is_empty());
 }
 
 #[test]
@@ -74,7 +86,10 @@ fn existing_report_is_refused_without_overwrite() {
     assert!(matches!(err, ReportError::Exists { .. }));
     assert_eq!(
         err.to_string(),
-        format!("report folder {} exists; pass --overwrite to replace it", dir.display())
+        format!(
+            "report folder {} exists; pass --overwrite to replace it",
+            dir.display()
+        )
     );
     // The first report is untouched and no staging folder is left.
     assert_complete(&dir, &first);
@@ -104,7 +119,10 @@ fn overwrite_never_deletes_a_folder_that_is_not_a_report() {
     fs::write(dir.join("chapter1.tex"), "precious").unwrap();
     let err = write_report(&dir, &common::full(), &extras(), true).unwrap_err();
     assert!(matches!(err, ReportError::NotAReport { .. }), "{err}");
-    assert_eq!(fs::read_to_string(dir.join("chapter1.tex")).unwrap(), "precious");
+    assert_eq!(
+        fs::read_to_string(dir.join("chapter1.tex")).unwrap(),
+        "precious"
+    );
     assert!(hidden(tmp.path()).is_empty());
     // A plain file under the name is not replaced either.
     let file = tmp.path().join("plain");
@@ -160,7 +178,9 @@ const CHILD_DIR: &str = "MOTLEY_REPORT_KILL_TEST_DIR";
 
 /// A big result, so that one report takes long enough to be killed part-way.
 fn big() -> RunResult {
-    let claims = (0..40).map(|i| common::same_law(&format!("claim-{i}"), i % 2 == 0, 0.01)).collect();
+    let claims = (0..40)
+        .map(|i| common::same_law(&format!("claim-{i}"), i % 2 == 0, 0.01))
+        .collect();
     common::run(claims)
 }
 
@@ -191,7 +211,13 @@ fn kill_midway_leaves_no_half_written_report() {
     fs::remove_dir_all(&probe).unwrap();
     for delay_ms in [0.2, 0.7, 1.3, 2.1, 3.4, 5.5].map(|f| 30 + (f * one as f64) as u64) {
         let mut child = Command::new(&exe)
-            .args(["--exact", "child_writes_reports_forever", "--ignored", "--nocapture", "--test-threads=1"])
+            .args([
+                "--exact",
+                "child_writes_reports_forever",
+                "--ignored",
+                "--nocapture",
+                "--test-threads=1",
+            ])
             .env(CHILD_DIR, &dir)
             .stdout(std::process::Stdio::null())
             .stderr(std::process::Stdio::null())
@@ -204,7 +230,11 @@ fn kill_midway_leaves_no_half_written_report() {
             assert_complete(&dir, &big());
         }
         if std::env::var_os("MOTLEY_REPORT_KILL_TRACE").is_some() {
-            eprintln!("kill after {delay_ms} ms: final exists {}, hidden {:?}", dir.exists(), hidden(tmp.path()));
+            eprintln!(
+                "kill after {delay_ms} ms: final exists {}, hidden {:?}",
+                dir.exists(),
+                hidden(tmp.path())
+            );
         }
     }
     // The next run succeeds and sweeps the dead children's staging and moved-aside folders.

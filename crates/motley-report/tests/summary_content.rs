@@ -11,7 +11,13 @@ use motley_report::{verdict_line, write_report, ReportExtras};
 fn write_full(dir: &Path) -> String {
     let extras = ReportExtras::new(
         "name: demo-rainbow\nseed: 20240611\n",
-        vec!["motley".into(), "run".into(), "scenarios/demo rainbow.yaml".into(), "--threads".into(), "2".into()],
+        vec![
+            "motley".into(),
+            "run".into(),
+            "scenarios/demo rainbow.yaml".into(),
+            "--threads".into(),
+            "2".into(),
+        ],
     )
     .with_picture(common::picture(), "Sample 0 of model `rect`");
     write_report(dir, &common::full(), &extras, false).unwrap();
@@ -29,7 +35,7 @@ fn verdict_lines_use_the_fixed_words() {
             "not rejected at α = 0.01",
             "REJECTED at α = 0.01",
             "holds exactly (total variation 0 up to 1e-13)",
-            "not rejected at α = 0.01",
+            "estimated (no test: nothing stated to test against)",
             "described (no claim tested)",
         ]
     );
@@ -50,9 +56,16 @@ fn summary_has_overview_verdicts_and_test_table() {
     assert!(md.starts_with("# Rainbow exits against the transposed occupation\n"));
     assert!(md.contains("An invented scenario for the report tests."));
     // Overview row of the rejected claim, linking to its section by a sanitized anchor.
-    assert!(md.contains("| [`near miss`](#claim-near-miss) | same-law | Monte Carlo | REJECTED at α = 0.01 |"), "{md}");
+    assert!(
+        md.contains(
+            "| [`near miss`](#claim-near-miss) | same-law | Monte Carlo | REJECTED at α = 0.01 |"
+        ),
+        "{md}"
+    );
     assert!(md.contains("<a id=\"claim-near-miss\"></a>"));
-    assert!(md.contains("**Verdict: not rejected at α = 0.01.**\nNo difference found between the two laws."));
+    assert!(md.contains(
+        "**Verdict: not rejected at α = 0.01.**\nNo difference found between the two laws."
+    ));
     assert!(md.contains("**Verdict: REJECTED at α = 0.01.**"));
     assert!(md.contains("**Verdict: holds exactly (total variation 0 up to 1e-13).**"));
     // Test table header and rows: statistic, dof, p-value, Holm-adjusted p-value.
@@ -62,9 +75,16 @@ fn summary_has_overview_verdicts_and_test_table() {
     assert!(md.contains(
         "| chi-square on the joint law | 18.2 | 14 | 4.12e-1 | 8.25e-1 | does not reject | pooled cells with expected count below 5 |"
     ), "{md}");
-    assert!(md.contains("| Kolmogorov–Smirnov on the set size | 0.0121 | — | 7.31e-1 | 7.31e-1 | does not reject |"));
+    assert!(md.contains(
+        "| Kolmogorov–Smirnov on the set size | 0.0121 | — | 7.31e-1 | 7.31e-1 | does not reject |"
+    ));
     // An underflowed p-value is never printed as 0.
-    assert!(md.contains("| chi-square on the joint law | 18.2 | 14 | < 1e-300 | < 1e-300 | **rejects** |"), "{md}");
+    assert!(
+        md.contains(
+            "| chi-square on the joint law | 18.2 | 14 | < 1e-300 | < 1e-300 | **rejects** |"
+        ),
+        "{md}"
+    );
 }
 
 #[test]
@@ -80,18 +100,27 @@ fn summary_states_effect_power_and_limits() {
     ));
     assert!(md.contains("Monte Carlo never proves an identity."));
     assert!(md.contains("proves the identity only for the size enumerated"));
-    // Four tested claims (describe excluded) at 0.01 each.
-    assert!(md.contains("with 4 tested claims, the chance of at least one false alarm is at most 0.04"));
+    // Three tested claims (the describe claim and the untested probability excluded) at 0.01 each.
+    assert!(
+        md.contains("with 3 tested claims, the chance of at least one false alarm is at most 0.03")
+    );
 }
 
 #[test]
 fn summary_has_estimate_tables() {
     let tmp = tempfile::tempdir().unwrap();
     let md = write_full(&tmp.path().join("rep"));
-    assert!(md.contains("| Event | Successes / trials | Estimate | Wilson interval | Clopper–Pearson interval |"));
-    assert!(md.contains("| t = 10 | 2200 / 4000 | 0.55 | [0.53, 0.57] | [0.525, 0.575] |"), "{md}");
+    assert!(md.contains(
+        "| Event | Successes / trials | Estimate | Wilson interval | Clopper–Pearson interval |"
+    ));
+    assert!(
+        md.contains("| t = 10 | 2200 / 4000 | 0.55 | [0.53, 0.57] | [0.525, 0.575] |"),
+        "{md}"
+    );
     // Top outcomes side by side; the shorter side padded.
-    assert!(md.contains("| Rank | `top-exits` | Probability | `transposed-occupation` | Probability |"));
+    assert!(
+        md.contains("| Rank | `top-exits` | Probability | `transposed-occupation` | Probability |")
+    );
     assert!(md.contains("| 1 | `{1, 3}` | 0.12 | `{1, 3}` | 0.118 |"));
     assert!(md.contains("| 2 | `{3}` | 0.09 | | |"));
     // Moments: an empty label falls back to the observable's name.
@@ -117,7 +146,10 @@ fn summary_links_only_existing_figures() {
     }
     for f in fs::read_dir(dir.join("figures")).unwrap() {
         let name = format!("figures/{}", f.unwrap().file_name().to_string_lossy());
-        assert!(links.contains(&name.as_str()), "figure {name} is not linked");
+        assert!(
+            links.contains(&name.as_str()),
+            "figure {name} is not linked"
+        );
     }
     assert!(md.contains("![sample configuration](figures/sample.svg)"));
     assert!(md.contains("Sample 0 of model `rect` (2 × 2 vertices)."));

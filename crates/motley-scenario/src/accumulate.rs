@@ -44,10 +44,12 @@ pub struct SetCounts {
     /// Universe size.
     pub universe: usize,
     /// Joint law by mask, when the universe is small enough.
+    #[serde(with = "pairs_opt")]
     pub joint: Option<BTreeMap<Mask, u64>>,
     /// Samples containing element `k + 1`.
     pub inclusion: Vec<u64>,
     /// Law of size, min, max, sum (in that order); empty min/max under [`EMPTY_SUMMARY`].
+    #[serde(with = "pairs_four")]
     pub summaries: [BTreeMap<u64, u64>; 4],
 }
 
@@ -73,7 +75,57 @@ pub struct SequenceCounts {
     /// Samples.
     pub n: u64,
     /// Law by sequence.
+    #[serde(with = "pairs")]
     pub counts: BTreeMap<Vec<u32>, u64>,
+}
+
+/// Maps are written to JSON as lists of `[key, count]` pairs (JSON keys must be strings).
+mod pairs {
+    use std::collections::BTreeMap;
+
+    use serde::{Deserialize, Deserializer, Serialize, Serializer};
+
+    pub fn serialize<K: Serialize, S: Serializer>(m: &BTreeMap<K, u64>, s: S) -> Result<S::Ok, S::Error> {
+        s.collect_seq(m.iter())
+    }
+
+    pub fn deserialize<'de, K: Deserialize<'de> + Ord, D: Deserializer<'de>>(
+        d: D,
+    ) -> Result<BTreeMap<K, u64>, D::Error> {
+        Ok(Vec::<(K, u64)>::deserialize(d)?.into_iter().collect())
+    }
+}
+
+mod pairs_opt {
+    use std::collections::BTreeMap;
+
+    use serde::{Deserialize, Deserializer, Serializer};
+
+    pub fn serialize<S: Serializer>(m: &Option<BTreeMap<super::Mask, u64>>, s: S) -> Result<S::Ok, S::Error> {
+        match m {
+            Some(m) => s.serialize_some(&m.iter().collect::<Vec<_>>()),
+            None => s.serialize_none(),
+        }
+    }
+
+    pub fn deserialize<'de, D: Deserializer<'de>>(d: D) -> Result<Option<BTreeMap<super::Mask, u64>>, D::Error> {
+        Ok(Option::<Vec<(super::Mask, u64)>>::deserialize(d)?.map(|v| v.into_iter().collect()))
+    }
+}
+
+mod pairs_four {
+    use std::collections::BTreeMap;
+
+    use serde::{Deserialize, Deserializer, Serializer};
+
+    pub fn serialize<S: Serializer>(m: &[BTreeMap<u64, u64>; 4], s: S) -> Result<S::Ok, S::Error> {
+        s.collect_seq(m.iter().map(|h| h.iter().collect::<Vec<_>>()))
+    }
+
+    pub fn deserialize<'de, D: Deserializer<'de>>(d: D) -> Result<[BTreeMap<u64, u64>; 4], D::Error> {
+        let v = <[Vec<(u64, u64)>; 4]>::deserialize(d)?;
+        Ok(v.map(|h| h.into_iter().collect()))
+    }
 }
 
 /// Sets `mask` bit for element `k` (1-based).
@@ -240,6 +292,8 @@ mod tests {
             }
             assert_eq!(merged, whole);
         }
+        let json = serde_json::to_string(&whole).unwrap();
+        assert_eq!(serde_json::from_str::<Accumulator>(&json).unwrap(), whole);
         let Accumulator::Set(s) = &whole else { unreachable!() };
         assert_eq!(s.inclusion.iter().sum::<u64>(), data.iter().map(|d| d.len() as u64).sum());
         assert_eq!(mask_elements(&[0b101, 1]), vec![1, 3, 65]);

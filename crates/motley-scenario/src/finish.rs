@@ -207,12 +207,12 @@ pub fn finish(s: &Scenario, plan: &Plan, partials: &[Partial], git_commit: &str)
             samples: s.samples,
             alpha: s.alpha,
             power: s.power,
-            shards: partials.first().map_or(1, |p| p.shard.count),
         },
         timing: Timing {
             wall_seconds: wall,
             threads,
             samples_per_second: if wall > 0.0 { total as f64 / wall } else { 0.0 },
+            shards: partials.first().map_or(1, |p| p.shard.count),
         },
         claims,
     }

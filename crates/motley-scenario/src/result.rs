@@ -20,7 +20,8 @@ pub struct RunResult {
     pub git_commit: String,
     /// The scenario.
     pub scenario: ScenarioInfo,
-    /// Wall time and threads: the only fields allowed to differ between reruns.
+    /// Wall time, threads and shards: the only fields (with `git_commit`) allowed to differ between
+    /// reruns.
     pub timing: Timing,
     /// One entry per claim, in file order.
     pub claims: Vec<ClaimResult>,
@@ -45,8 +46,6 @@ pub struct ScenarioInfo {
     pub alpha: f64,
     /// Power at which detectable differences are quoted.
     pub power: f64,
-    /// Shards merged into this result (1 for a single run).
-    pub shards: u64,
 }
 
 /// Timing (excluded from reproducibility comparisons).
@@ -58,6 +57,8 @@ pub struct Timing {
     pub threads: usize,
     /// Samples per second reached, all sides together.
     pub samples_per_second: f64,
+    /// Shards merged into this result (1 for a single run).
+    pub shards: u64,
 }
 
 /// The result of one claim.

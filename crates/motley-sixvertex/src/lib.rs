@@ -17,7 +17,7 @@
 //!   stronger color meeting 0, so the colorblind model (colors 0/1) is the stochastic six-vertex model
 //!   where a path from below goes up with probability `b1` and a path from the left goes right with
 //!   probability `b2`.
-//! - **Height function** (see [`readout`](crate::HeightQuery) docs): `H(a, b)` = paths crossing the
+//! - **Height function** ([`HeightQuery`]): `H(a, b)` = paths crossing the
 //!   horizontal line `b + ½` right of `a + ½` plus paths leaving through the right side in rows
 //!   `≤ b`. Under the step boundary, `H(0, b) = b`, `H(a, 0) = 0`, and `H(a, b)` is the number of
 //!   paths crossing the vertical line `a + ½` in rows `1..=b`. A threshold `t` counts only colors
@@ -43,6 +43,12 @@
 //! colors it keeps apart and merges equal colors, and the decision at a vertex depends only on which
 //! incoming color is stronger and on the vertex's word. So the projection of a colored sample equals,
 //! edge for edge, the sample of the projected model on the same seed and index.
+//!
+//! # Kernel
+//! Rows are swept one at a time with O(W) state (the vertical colors), in `sweep.rs`: one small
+//! branch-free vertex function (arithmetic masks; an empty `asm!` block stops LLVM from turning the
+//! masks back into branches) and a row loop around it. A faster kernel processing strips of rows can
+//! be added beside it and tested against it bit for bit on the same words.
 //!
 //! # Exact laws
 //! [`exact_law`] gives the joint law of (top exits, right exits) as an [`ExactLaw`] sorted by

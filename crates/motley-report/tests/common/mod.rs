@@ -36,7 +36,14 @@ pub fn interval(label: &str, k: u64, n: u64) -> Interval {
 }
 
 /// A test row.
-pub fn test(name: &str, statistic: f64, dof: Option<f64>, p: f64, adj: f64, alpha: f64) -> TestResult {
+pub fn test(
+    name: &str,
+    statistic: f64,
+    dof: Option<f64>,
+    p: f64,
+    adj: f64,
+    alpha: f64,
+) -> TestResult {
     TestResult {
         name: name.into(),
         statistic,
@@ -51,10 +58,28 @@ pub fn test(name: &str, statistic: f64, dof: Option<f64>, p: f64, adj: f64, alph
 /// A same-law claim decided by Monte Carlo, with sets (inclusion, size law, top outcomes) and
 /// numbers (ECDF, moments); `rejected` picks the p-values.
 pub fn same_law(id: &str, rejected: bool, alpha: f64) -> ClaimResult {
-    let (p1, p2) = if rejected { (0.0, 3.1e-9) } else { (0.4123, 0.7311) };
+    let (p1, p2) = if rejected {
+        (0.0, 3.1e-9)
+    } else {
+        (0.4123, 0.7311)
+    };
     let tests = vec![
-        test("chi-square on the joint law", 18.2, Some(14.0), p1, (2.0 * p1).min(1.0), alpha),
-        test("Kolmogorov–Smirnov on the set size", 0.0121, None, p2, p2, alpha),
+        test(
+            "chi-square on the joint law",
+            18.2,
+            Some(14.0),
+            p1,
+            (2.0 * p1).min(1.0),
+            alpha,
+        ),
+        test(
+            "Kolmogorov–Smirnov on the set size",
+            0.0121,
+            None,
+            p2,
+            p2,
+            alpha,
+        ),
     ];
     let k: Vec<f64> = (0..6).map(f64::from).collect();
     let law_a = vec![0.05, 0.2, 0.3, 0.25, 0.15, 0.05];
@@ -152,7 +177,8 @@ pub fn swap_probability(id: &str) -> ClaimResult {
     ClaimResult {
         id: id.into(),
         kind: "probability".into(),
-        says: "Probability that the second- and third-class particles have swapped by time t.".into(),
+        says: "Probability that the second- and third-class particles have swapped by time t."
+            .into(),
         observables: vec!["swapped".into()],
         decided_by: "monte-carlo".into(),
         rejected: false,
@@ -167,7 +193,12 @@ pub fn swap_probability(id: &str) -> ClaimResult {
                 interval("t = 10", 2200, 4000),
                 interval("t = 20", 2480, 4000),
             ],
-            reference: Some(series("limit 2/3", vec![5.0, 20.0], vec![2.0 / 3.0, 2.0 / 3.0], 0.0)),
+            reference: Some(series(
+                "limit 2/3",
+                vec![5.0, 20.0],
+                vec![2.0 / 3.0, 2.0 / 3.0],
+                0.0,
+            )),
             ..Estimates::default()
         },
     }
@@ -211,7 +242,11 @@ pub fn run(claims: Vec<ClaimResult>) -> RunResult {
             power: 0.8,
             shards: 1,
         },
-        timing: Timing { wall_seconds: 12.34, threads: 2, samples_per_second: 3241.0 },
+        timing: Timing {
+            wall_seconds: 12.34,
+            threads: 2,
+            samples_per_second: 3241.0,
+        },
         claims,
     }
 }
@@ -262,12 +297,17 @@ pub fn check_xml(text: &str) -> Result<(), String> {
             return Err(format!("unbalanced quotes in <{tag}>"));
         }
         if let Some(name) = tag.strip_prefix('/') {
-            let top = stack.pop().ok_or_else(|| format!("</{name}> closes nothing"))?;
+            let top = stack
+                .pop()
+                .ok_or_else(|| format!("</{name}> closes nothing"))?;
             if top != name.trim() {
                 return Err(format!("</{name}> closes <{top}>"));
             }
         } else if !tag.starts_with('?') && !tag.starts_with('!') {
-            let name = tag.split(|c: char| c.is_whitespace() || c == '/').next().unwrap_or("");
+            let name = tag
+                .split(|c: char| c.is_whitespace() || c == '/')
+                .next()
+                .unwrap_or("");
             if stack.is_empty() {
                 roots += 1;
             }

@@ -1,0 +1,95 @@
+//! Every worked scenario runs from its file; true claims are not rejected and the near miss is.
+//!
+//! The claim-bearing scenarios run at their default sample size, as the README promises. Each
+//! verdict is a test at α = 0.01 with a fixed seed, so the outcome is deterministic; a true claim
+//! would be rejected by chance for 1% of seeds. Describe-only scenarios run with fewer samples.
+
+mod common;
+
+use common::*;
+
+fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join(name);
+    let path = scenario(name);
+    let mut args = vec!["run", path.to_str().unwrap(), "--out", out.to_str().unwrap(), "--quiet"];
+    args.extend_from_slice(extra);
+    run_ok(&args);
+    for f in ["summary.md", "result.json", "scenario.yaml"] {
+        assert!(out.join(f).is_file(), "{name}: {f} missing");
+    }
+    let v = comparable(&out);
+    v["claims"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| {
+            (
+                c["id"].as_str().unwrap().to_string(),
+                c["rejected"].as_bool().unwrap(),
+                c["decided_by"].as_str().unwrap().to_string(),
+            )
+        })
+        .collect()
+}
+
+#[test]
+fn rainbow_symmetry_holds_exactly_and_by_monte_carlo() {
+    let v = verdicts("rainbow-symmetry", &[]);
+    assert_eq!(
+        v,
+        vec![
+            ("exact-4x3".into(), false, "exact".into()),
+            ("monte-carlo-12x9".into(), false, "monte-carlo".into())
+        ]
+    );
+}
+
+#[test]
+fn near_miss_is_rejected_both_ways() {
+    let v = verdicts("rainbow-near-miss", &[]);
+    assert!(v.iter().all(|(_, rejected, _)| *rejected), "{v:?}");
+    assert_eq!(v[0].2, "exact");
+    assert_eq!(v[1].2, "monte-carlo");
+}
+
+#[test]
+fn second_class_tail_identity_is_not_rejected() {
+    let v = verdicts("second-class-tasep", &[]);
+    assert_eq!(v[0], ("tail-identity".into(), false, "monte-carlo".into()));
+}
+
+#[test]
+fn packed_inverse_holds_exactly_and_by_monte_carlo() {
+    let v = verdicts("packed-inverse", &[]);
+    assert_eq!(
+        v,
+        vec![
+            ("exact-five-sites".into(), false, "exact".into()),
+            ("forty-sites".into(), false, "monte-carlo".into())
+        ]
+    );
+}
+
+#[test]
+fn describe_only_scenarios_run() {
+    for (name, samples) in [("second-third-swap", "2000"), ("step-height", "200")] {
+        let v = verdicts(name, &["--samples", samples]);
+        assert!(v.iter().all(|(_, rejected, _)| !rejected), "{name}: {v:?}");
+    }
+}
+
+#[test]
+fn built_in_examples_match_the_files() {
+    let out = run_ok(&["examples", "list"]);
+    let list = String::from_utf8(out.stdout).unwrap();
+    for entry in std::fs::read_dir(root().join("scenarios")).unwrap() {
+        let p = entry.unwrap().path();
+        if p.extension().is_some_and(|e| e == "yaml") {
+            let name = p.file_stem().unwrap().to_str().unwrap().to_string();
+            assert!(list.contains(&name), "example {name} not listed");
+            let shown = run_ok(&["examples", "show", &name]).stdout;
+            assert_eq!(shown, std::fs::read(&p).unwrap(), "example {name} differs from its file");
+        }
+    }
+}
