@@ -5,16 +5,7 @@ use motley_scenario::plan::plan;
 
 use crate::cli::CheckArgs;
 use crate::exit::Failure;
-use crate::input::{load, threads};
-
-fn human_bytes(b: f64) -> String {
-    let mib = b / (1024.0 * 1024.0);
-    if mib < 1024.0 {
-        format!("{mib:.0} MiB")
-    } else {
-        format!("{:.1} GiB", mib / 1024.0)
-    }
-}
+use crate::input::{check_memory, human_bytes, load, threads};
 
 fn human_seconds(s: f64) -> String {
     if s < 90.0 {
@@ -46,5 +37,6 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
         human_seconds(cost.seconds),
         human_bytes(cost.bytes)
     );
+    check_memory(&loaded.file, cost.bytes, a.memory_limit.as_deref())?;
     Ok(())
 }

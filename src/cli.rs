@@ -56,6 +56,10 @@ pub struct RunArgs {
     /// Override the scenario's sample count (e.g. for a quick look); recorded in the result.
     #[arg(long, value_name = "N")]
     pub samples: Option<u64>,
+    /// Refuse when the estimated peak memory exceeds SIZE (e.g. `512M`, `4G`; `none`: no limit).
+    /// Default: the machine's available memory (MemAvailable of /proc/meminfo; no limit elsewhere).
+    #[arg(long, value_name = "SIZE")]
+    pub memory_limit: Option<String>,
     /// Replace the report folder if it exists.
     #[arg(long)]
     pub overwrite: bool,
@@ -85,6 +89,10 @@ pub struct CheckArgs {
     /// Override the sample count, as `motley run --samples` would.
     #[arg(long, value_name = "N")]
     pub samples: Option<u64>,
+    /// Refuse when the estimated peak memory exceeds SIZE (e.g. `512M`, `4G`; `none`: no limit).
+    /// Default: the machine's available memory (MemAvailable of /proc/meminfo; no limit elsewhere).
+    #[arg(long, value_name = "SIZE")]
+    pub memory_limit: Option<String>,
 }
 
 /// `motley merge`.

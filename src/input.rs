@@ -58,3 +58,100 @@ pub fn threads(asked: Option<usize>) -> Result<usize, Failure> {
         None => Ok(num_cpus::get().max(1)),
     }
 }
+
+/// `1536`, `512K`, `512M`, `4G`, `1.5T` (binary multiples; an optional `B` or `iB` may follow):
+/// bytes.
+pub fn parse_size(text: &str) -> Option<f64> {
+    let t = text.trim();
+    let t = t.strip_suffix("iB").or_else(|| t.strip_suffix('B')).unwrap_or(t);
+    let (digits, unit) = match t.char_indices().last() {
+        Some((i, c)) if c.is_ascii_alphabetic() => (&t[..i], c.to_ascii_uppercase()),
+        _ => (t, ' '),
+    };
+    let factor = match unit {
+        ' ' => 1.0,
+        'K' => 1024.0,
+        'M' => 1024f64.powi(2),
+        'G' => 1024f64.powi(3),
+        'T' => 1024f64.powi(4),
+        _ => return None,
+    };
+    let v: f64 = digits.trim().parse().ok()?;
+    (v.is_finite() && v > 0.0).then_some(v * factor)
+}
+
+/// The machine's available memory in bytes (`MemAvailable` of /proc/meminfo), if known.
+fn available_memory() -> Option<f64> {
+    let info = std::fs::read_to_string("/proc/meminfo").ok()?;
+    let line = info.lines().find(|l| l.starts_with("MemAvailable:"))?;
+    let kib: f64 = line.split_whitespace().nth(1)?.parse().ok()?;
+    Some(kib * 1024.0)
+}
+
+/// The memory limit in bytes and where it comes from: `--memory-limit` if given (`none`: no
+/// limit), else the available memory, else none.
+pub fn memory_limit(asked: Option<&str>) -> Result<Option<(f64, &'static str)>, Failure> {
+    match asked {
+        Some(t) if t.trim().eq_ignore_ascii_case("none") => Ok(None),
+        Some(t) => parse_size(t).map(|b| Some((b, "--memory-limit"))).ok_or_else(|| {
+            Failure::BadInput(format!(
+                "--memory-limit must be a size like 512M or 4G (or `none`), got \"{t}\""
+            ))
+        }),
+        None => Ok(available_memory().map(|b| (b, "available memory"))),
+    }
+}
+
+/// Refuses a run of `file` whose estimated peak memory `bytes` exceeds the limit.
+pub fn check_memory(file: &str, bytes: f64, asked: Option<&str>) -> Result<(), Failure> {
+    if let Some((limit, source)) = memory_limit(asked)? {
+        if bytes > limit {
+            return Err(Failure::BadInput(format!(
+                "{file}: the run needs about {} of memory (estimate), more than the limit of {} ({source}); lower samples or sizes, or raise --memory-limit",
+                human_bytes(bytes),
+                human_bytes(limit)
+            )));
+        }
+    }
+    Ok(())
+}
+
+/// Bytes for people: MiB below 1 GiB, then GiB, then TiB.
+pub fn human_bytes(b: f64) -> String {
+    let mib = b / (1024.0 * 1024.0);
+    if mib < 1024.0 {
+        format!("{mib:.0} MiB")
+    } else if mib < 1024.0 * 1024.0 {
+        format!("{:.1} GiB", mib / 1024.0)
+    } else {
+        format!("{:.1} TiB", mib / (1024.0 * 1024.0))
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn sizes() {
+        assert_eq!(parse_size("1536"), Some(1536.0));
+        assert_eq!(parse_size("512M"), Some(512.0 * 1024.0 * 1024.0));
+        assert_eq!(parse_size("4G"), Some(4.0 * 1024f64.powi(3)));
+        assert_eq!(parse_size("4GiB"), parse_size("4g"));
+        assert_eq!(parse_size("1.5K"), Some(1536.0));
+        assert_eq!(parse_size("2TB"), Some(2.0 * 1024f64.powi(4)));
+        for bad in ["", "G", "4X", "-1G", "0", "nanG", "4 G B"] {
+            assert_eq!(parse_size(bad), None, "{bad}");
+        }
+        assert_eq!(human_bytes(1024f64.powi(3)), "1.0 GiB");
+        assert_eq!(human_bytes(3.0 * 1024f64.powi(4)), "3.0 TiB");
+    }
+
+    #[test]
+    fn limit_refuses_above_and_accepts_below() {
+        assert!(check_memory("f.yaml", 2e9, Some("1G")).is_err());
+        assert!(check_memory("f.yaml", 5e8, Some("1G")).is_ok());
+        assert!(check_memory("f.yaml", 1e300, Some("none")).is_ok());
+        assert!(matches!(check_memory("f.yaml", 1.0, Some("lots")), Err(Failure::BadInput(_))));
+    }
+}

@@ -13,7 +13,7 @@ use motley_scenario::Scenario;
 
 use crate::cli::RunArgs;
 use crate::exit::Failure;
-use crate::input::{load, threads, Loaded};
+use crate::input::{check_memory, load, threads, Loaded};
 use crate::progress::Progress;
 
 /// The commit this binary was built from.
@@ -156,6 +156,14 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         Some(t) => Some(parse_shard(t)?),
         None => None,
     };
+    {
+        // A shard holds only its slice of the samples.
+        let (from, to) = shard.unwrap_or(Shard::WHOLE).range(s.samples);
+        let mut slice = s.clone();
+        slice.samples = to - from;
+        let bytes = motley_scenario::cost::estimate(&slice, &p, threads).bytes;
+        check_memory(&loaded.file, bytes, a.memory_limit.as_deref())?;
+    }
     if !(a.checkpoint_every.is_finite() && a.checkpoint_every >= 0.0) {
         return Err(Failure::BadInput(format!("--checkpoint-every must be a number of seconds ≥ 0, got {}", a.checkpoint_every)));
     }

@@ -1,13 +1,50 @@
-//! Throughput of the exclusion engine: the ring kernel (attempted moves per second), the line on
-//! step data, and the exact solver on 7 packed sites. Seeded inputs; run with
-//! `cargo bench -p motley-exclusion`.
+//! Throughput of the exclusion engine: the ring kernel (attempted moves per second) beside a
+//! "ChaCha8 limit loop" in the same run, the line on step data, and the exact solver on 7 packed
+//! sites. Seeded inputs; run with `cargo bench -p motley-exclusion` (or `scripts/bench-ratios.sh`,
+//! which adds the plain C loop and prints the ratios).
 
 use criterion::{criterion_group, criterion_main, Criterion, Throughput};
 use motley_exclusion::{
     ExactSolver, FiniteLattice, FiniteProcess, FiniteSystem, LineData, LineProcess, Rates,
     DEFAULT_TAIL,
 };
+use motley_stream::sample_stream;
+use rand_core::Rng;
 use std::hint::black_box;
+
+/// The ChaCha8 limit loop for the ring: the same attempts as the engine's TASEP ring (uniform bond
+/// by multiply-shift on one bulk-generated ChaCha8 word, `fill_bytes` into a 1 KiB buffer; no
+/// rejection step), 16-bit colors, a branch-free min/max exchange, and nothing else: no Poisson
+/// count, no observer. A reproducible engine on rand_chacha's ChaCha8 cannot beat it by much.
+fn ring_limit(c: &mut Criterion) {
+    let n = 100_000usize;
+    let moves = 10_000_000usize;
+    let mut sites: Vec<u16> = (0..n as u32).map(|i| ((i * 7 + i / 13) % 5) as u16).collect();
+    let mut bytes = [0u8; 1024];
+    let mut g = c.benchmark_group("ring_1e5_tasep");
+    g.sample_size(10);
+    g.throughput(Throughput::Elements(moves as u64));
+    let mut i = 0;
+    g.bench_function("chacha8_limit", |b| {
+        b.iter(|| {
+            i += 1;
+            let mut rng = sample_stream(1, i, 1);
+            for _ in 0..moves / 256 {
+                rng.fill_bytes(&mut bytes);
+                for w in bytes.chunks_exact(4) {
+                    let u = u32::from_le_bytes([w[0], w[1], w[2], w[3]]);
+                    let x = ((u64::from(u) * n as u64) >> 32) as usize;
+                    let y = if x + 1 == n { 0 } else { x + 1 };
+                    let (a, b) = (sites[x], sites[y]);
+                    sites[x] = a.min(b);
+                    sites[y] = a.max(b);
+                }
+            }
+            black_box(sites[0])
+        })
+    });
+    g.finish();
+}
 
 fn ring_tasep(c: &mut Criterion) {
     let n = 100_000usize;
@@ -93,6 +130,6 @@ criterion_group!(
     config = Criterion::default()
         .warm_up_time(std::time::Duration::from_millis(500))
         .measurement_time(std::time::Duration::from_secs(3));
-    targets = ring_tasep, line_step, exact_packed7
+    targets = ring_tasep, ring_limit, line_step, exact_packed7
 );
 criterion_main!(benches);

@@ -44,6 +44,8 @@
 //!     }],
 //!     effect: None,
 //!     exact: None,
+//!     stated: None,
+//!     stated: None,
 //!     estimates: Estimates {
 //!         probabilities: vec![Interval {
 //!             label: "heads".into(),
@@ -71,9 +73,8 @@
 //!         samples: 1000,
 //!         alpha: 0.01,
 //!         power: 0.8,
-//!         shards: 1,
 //!     },
-//!     timing: Timing { wall_seconds: 0.1, threads: 1, samples_per_second: 1e4 },
+//!     timing: Timing { wall_seconds: 0.1, threads: 1, samples_per_second: 1e4, shards: 1 },
 //!     claims: vec![claim],
 //! };
 //! let tmp = tempfile::tempdir()?;

@@ -357,6 +357,24 @@ fn claim_section(
 /// Tables of probabilities, top outcomes and moments.
 fn estimates(s: &mut String, claim: &ClaimResult) {
     let est = &claim.estimates;
+    if let Some(st) = &claim.stated {
+        let what = if st.role == "limit" {
+            "Limit quoted beside the measured mean (not tested)"
+        } else {
+            "Stated value"
+        };
+        let _ = writeln!(s, "### {what}\n");
+        let _ = writeln!(s, "| Value | Estimate | Estimate − value | ± (1 − α interval) |");
+        let _ = writeln!(s, "|---|---|---|---|");
+        let _ = writeln!(
+            s,
+            "| {} | {} | {} | {} |\n",
+            num(st.value),
+            num(st.estimate),
+            num(st.difference),
+            num(st.half_width)
+        );
+    }
     if !est.probabilities.is_empty() {
         let _ = writeln!(s, "### Probabilities\n");
         let _ = writeln!(s, "| Event | Successes / trials | Estimate | Wilson interval | Clopper–Pearson interval |");
@@ -437,7 +455,7 @@ fn reproduce(s: &mut String, result: &RunResult, extras: &ReportExtras) {
         ("Seed", sc.seed.to_string()),
         ("α", short(sc.alpha)),
         ("Power for detectable differences", short(sc.power)),
-        ("Shards merged", sc.shards.to_string()),
+        ("Shards merged", t.shards.to_string()),
         ("motley version", result.motley_version.clone()),
         ("Git commit", code(&result.git_commit)),
         ("Scenario hash (SHA-256)", code(&sc.hash)),

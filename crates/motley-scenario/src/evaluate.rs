@@ -26,7 +26,7 @@ use motley_stats::{
 
 use crate::accumulate::{mask_elements, Accumulator, SetCounts, EMPTY_SUMMARY};
 use crate::estimate::*;
-use crate::result::{ClaimResult, Effect, Estimates, Series, TestResult};
+use crate::result::{ClaimResult, Effect, Estimates, Series, Stated, TestResult};
 use crate::scenario::{ClaimKind, ClaimSpec, ReadSpec, ReferenceSpec, Scenario};
 
 /// Upper `1 − alpha` quantile of the Kolmogorov distribution, by bisection on its survival function.
@@ -599,6 +599,30 @@ pub fn evaluate(
     }
     let rejected = fam.close(s.alpha);
     let samples = sl.first().map(|x| accs(slots, x).count()).unwrap_or(0);
+    let z = normal_upper_quantile(s.alpha / 2.0);
+    let stated = match (&c.kind, accs(slots, &sl[0])) {
+        (ClaimKind::Probability(_, Some(p0)), Accumulator::Event(e)) if e.n > 0 => {
+            let ph = e.yes as f64 / e.n as f64;
+            Some(Stated {
+                role: "equals".into(),
+                value: *p0,
+                estimate: ph,
+                difference: ph - p0,
+                half_width: z * (ph * (1.0 - ph) / e.n as f64).sqrt(),
+            })
+        }
+        (ClaimKind::Describe(_, _, Some(limit)), Accumulator::Scalar(x)) if !x.values.is_empty() => {
+            let m = moments("", &x.values);
+            Some(Stated {
+                role: "limit".into(),
+                value: *limit,
+                estimate: m.mean,
+                difference: m.mean - limit,
+                half_width: z * m.sd / (m.count as f64).sqrt(),
+            })
+        }
+        _ => None,
+    };
     let verdict = verdict(s, c, rejected, &effect);
     ClaimResult {
         id: c.id.clone(),
@@ -613,6 +637,7 @@ pub fn evaluate(
         effect,
         exact: None,
         estimates: est,
+        stated,
     }
 }
 

@@ -14,7 +14,7 @@ use motley_sixvertex::{exact_law, ratio, ExactLaw};
 use crate::estimate::{show_sequence, show_set};
 use crate::exclusion_unit;
 use crate::read_set::set_elements;
-use crate::result::{ClaimResult, Estimates, ExactResult, Interval, Moments, Outcome};
+use crate::result::{ClaimResult, Estimates, ExactResult, Interval, Moments, Outcome, Stated};
 use crate::scenario::*;
 
 /// Floating-point slack allowed on exact f64 computations.
@@ -320,6 +320,23 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             ("describe", vec![name(*a)], None, None, l.error, l.cells.len(), false)
         }
     };
+    let stated = match &c.kind {
+        ClaimKind::Probability(_, Some(v)) => probability.map(|p| Stated {
+            role: "equals".into(),
+            value: *v,
+            estimate: p,
+            difference: p - v,
+            half_width: 0.0,
+        }),
+        ClaimKind::Describe(_, _, Some(v)) => est.moments.first().map(|m| Stated {
+            role: "limit".into(),
+            value: *v,
+            estimate: m.mean,
+            difference: m.mean - v,
+            half_width: 0.0,
+        }),
+        _ => None,
+    };
     let tolerance = if rational { 0.0 } else { error + EXACT_TOLERANCE };
     let rejected = discrepancy.is_some_and(|d| d > tolerance);
     let verdict = match (kind, discrepancy) {
@@ -354,6 +371,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             error_bound: if rational { 0.0 } else { error },
         }),
         estimates: est,
+        stated,
     })
 }
 

@@ -233,5 +233,6 @@ fn failed(s: &Scenario, ci: usize, e: String) -> crate::result::ClaimResult {
         effect: None,
         exact: None,
         estimates: Default::default(),
+        stated: None,
     }
 }

@@ -40,9 +40,13 @@ pub(crate) fn observable(
         })
     };
     let wrong_model = |what: &str| {
+        let allowed = match m.kind {
+            ModelKind::SixVertex(_) => "top, right, row, column, height, exit-column",
+            ModelKind::Exclusion(_) => "window, position, arrangement, inverse-arrangement, current, height, swapped, attempted",
+        };
         ck.error(
             &rp,
-            format!("`{what}` is not a read-out of a {} model", m.kind.name()),
+            format!("`{what}` is not a read-out of a {} model (its read-outs: {allowed})", m.kind.name()),
         )
     };
     let set_kind = |k: SetRead, positions: usize| match k {
@@ -247,6 +251,18 @@ pub(crate) fn observable(
         let ValueKind::Set { universe } = kind else {
             return Err(ck.error(&format!("{path}.map"), format!("an index map applies to sets, but this observable is {}", kind.describe())));
         };
+        if let SetMap::Shift(s) = map {
+            // Checked here, with the shifted range in the message, and before `map_fits`, whose
+            // arithmetic would overflow for shifts near the ends of i64.
+            let fits = s.unsigned_abs() <= MAX_SIDE as u64 && map_fits(&map, universe, universe);
+            if !fits {
+                let (lo, hi) = (1 + i128::from(s), universe as i128 + i128::from(s));
+                return Err(ck.error(
+                    &format!("{path}.map.shift"),
+                    format!("the shift does not fit: `shift: {s}` moves {{1, …, {universe}}} to {{{lo}, …, {hi}}}, outside {{1, …, {universe}}}"),
+                ));
+            }
+        }
         if !map_fits(&map, universe, universe) {
             return Err(ck.error(
                 &format!("{path}.map"),

@@ -88,6 +88,24 @@ pub struct ClaimResult {
     pub exact: Option<ExactResult>,
     /// Estimated laws and curves, for the report's tables and figures.
     pub estimates: Estimates,
+    /// A value stated in the scenario beside the estimate: the `equals` of a probability claim or
+    /// the `limit` quoted with a described number.
+    pub stated: Option<Stated>,
+}
+
+/// A value the scenario states beside an estimate.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Stated {
+    /// `equals` (tested) or `limit` (quoted, not tested).
+    pub role: String,
+    /// The value.
+    pub value: f64,
+    /// The estimate it is compared with (probability or mean).
+    pub estimate: f64,
+    /// Estimate minus value.
+    pub difference: f64,
+    /// Half-width of a `1 − alpha` normal interval for the difference (0 when exact).
+    pub half_width: f64,
 }
 
 /// One hypothesis test.

@@ -126,7 +126,13 @@ impl Checker<'_> {
     }
 
     fn unknown_name(&self, path: &str, what: &str, name: &str, known: &[&str]) -> ScenarioError {
-        let hint = closest(name, known.iter().copied()).map(|c| format!("did you mean `{c}`?"));
+        // Names are at most 64 characters; a longer one is no typo (and the edit distance would
+        // cost memory proportional to its length).
+        let hint = if name.len() > 64 {
+            None
+        } else {
+            closest(name, known.iter().copied()).map(|c| format!("did you mean `{c}`?"))
+        };
         let list = if known.is_empty() {
             "none is defined".to_string()
         } else {
@@ -168,8 +174,8 @@ pub fn validate(
     let mut times: Vec<Vec<f64>> = vec![Vec::new(); raw.models.len()];
     for (oname, o) in &raw.observables {
         if let Some(m) = raw.models.get_index_of(&o.of) {
-            if let Some(t) = read_time(&o.read) {
-                let path = format!("observables.{oname}.read");
+            if let Some((read, t)) = read_time(&o.read) {
+                let path = format!("observables.{oname}.read.{read}.time");
                 times[m].push(ck.time(&path, t)?);
             }
         }
@@ -234,14 +240,17 @@ fn mode(m: RawExactMode) -> ExactMode {
     }
 }
 
-fn read_time(r: &RawRead) -> Option<f64> {
+/// The read-out's key and its time, for reads that take one.
+fn read_time(r: &RawRead) -> Option<(&'static str, f64)> {
     match r {
-        RawRead::Height(h) => h.time,
-        RawRead::Window(w) => Some(w.time),
-        RawRead::Position(p) => Some(p.time),
-        RawRead::Arrangement(t) | RawRead::InverseArrangement(t) => Some(t.time),
-        RawRead::Current(c) => Some(c.time),
-        RawRead::Swapped(p) | RawRead::Attempted(p) => Some(p.time),
+        RawRead::Height(h) => h.time.map(|t| ("height", t)),
+        RawRead::Window(w) => Some(("window", w.time)),
+        RawRead::Position(p) => Some(("position", p.time)),
+        RawRead::Arrangement(t) => Some(("arrangement", t.time)),
+        RawRead::InverseArrangement(t) => Some(("inverse-arrangement", t.time)),
+        RawRead::Current(c) => Some(("current", c.time)),
+        RawRead::Swapped(p) => Some(("swapped", p.time)),
+        RawRead::Attempted(p) => Some(("attempted", p.time)),
         _ => None,
     }
 }

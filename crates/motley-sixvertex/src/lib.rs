@@ -45,10 +45,14 @@
 //! edge for edge, the sample of the projected model on the same seed and index.
 //!
 //! # Kernel
-//! Rows are swept one at a time with O(W) state (the vertical colors), in `sweep.rs`: one small
-//! branch-free vertex function (arithmetic masks; an empty `asm!` block stops LLVM from turning the
-//! masks back into branches) and a row loop around it. A faster kernel processing strips of rows can
-//! be added beside it and tested against it bit for bit on the same words.
+//! The reference kernel sweeps rows one at a time with O(W) state (the vertical colors), in
+//! `sweep.rs`: one small branch-free vertex function (arithmetic masks; an empty `asm!` block stops
+//! LLVM from turning the masks back into branches) and a row loop around it. [`Model::sample`] uses
+//! the strip kernel of `strip.rs` instead whenever no read-out needs every horizontal edge (vertical
+//! lines, the whole configuration): strips of up to 32, 16 or 8 rows (`u8`, `u16` or `u32` colors,
+//! the narrowest that holds the boundary's colors) swept as a wavefront along anti-diagonals, with
+//! AVX2 when the processor has it. A strip ends at every row a read-out records (horizontal lines,
+//! heights). Tests check both kernels bit for bit on the same words; the state stays O(W).
 //!
 //! # Exact laws
 //! [`exact_law`] gives the joint law of (top exits, right exits) as an [`ExactLaw`] sorted by
@@ -99,6 +103,7 @@ mod law;
 mod model;
 mod outcome;
 mod readout;
+mod strip;
 mod sweep;
 mod weight;
 mod weights;
@@ -112,6 +117,8 @@ pub use model::Model;
 pub use motley_colorblind::Color;
 pub use outcome::Outcome;
 pub use readout::{HeightQuery, Readout, ReadoutSpec};
+#[doc(hidden)]
+pub use strip::Kernel;
 pub use weight::{ratio, Weight};
 #[doc(hidden)]
 pub use weights::VertexRule;

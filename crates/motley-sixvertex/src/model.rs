@@ -10,6 +10,7 @@ use motley_colorblind::Projection;
 use motley_stream::sample_stream;
 use rand_core::Rng;
 
+use crate::strip::{fits, sweep_rows, Kernel, StripRun};
 use crate::sweep::{sweep_row_with, Cuts};
 use crate::{Boundary, Readout, ReadoutSpec, SixVertexError, VertexRule, VertexWeights};
 
@@ -19,6 +20,7 @@ pub struct Model {
     weights: VertexWeights,
     boundary: Boundary,
     rule: VertexRule,
+    kernel: Kernel,
 }
 
 impl Model {
@@ -31,6 +33,7 @@ impl Model {
             weights: VertexWeights::new(b1, b2)?,
             boundary,
             rule: VertexRule::Standard,
+            kernel: Kernel::Auto,
         })
     }
 
@@ -39,6 +42,14 @@ impl Model {
     #[doc(hidden)]
     pub fn with_rule(mut self, rule: VertexRule) -> Self {
         self.rule = rule;
+        self
+    }
+
+    /// The same model sampled with another kernel (for tests and benchmarks: every kernel gives
+    /// bit-identical samples).
+    #[doc(hidden)]
+    pub fn with_kernel(mut self, kernel: Kernel) -> Self {
+        self.kernel = kernel;
         self
     }
 
@@ -73,6 +84,7 @@ impl Model {
             weights: self.weights,
             boundary: self.boundary.project(projection)?,
             rule: self.rule,
+            kernel: self.kernel,
         })
     }
 
@@ -107,24 +119,78 @@ impl Model {
         let mut next_height = 0;
         out.record_row_line(0);
         out.record_heights(0, &mut next_height);
-        let record = out.needs_horizontal();
-        for y in 1..=h {
-            fill_words(seed, index, y as u64, &mut out.bytes, &mut out.words);
-            let carry_in = out.left[y - 1];
-            let horiz = if record {
-                Some(out.horiz.as_mut_slice())
-            } else {
-                None
-            };
-            let carry = sweep_row_with(self.rule, &mut out.vert, &out.words, carry_in, cuts, horiz);
-            out.right[y - 1] = carry;
-            if record {
-                out.record_columns(y, carry_in);
+        let strips = self.kernel != Kernel::Reference
+            && self.rule != VertexRule::OccupancyOnly
+            && !out.needs_horizontal();
+        if !strips {
+            for y in 1..=h {
+                self.sweep_reference_row(seed, index, y, cuts, out);
+                out.record_row_line(y);
+                out.record_heights(y, &mut next_height);
             }
-            out.record_row_line(y);
-            out.record_heights(y, &mut next_height);
+            out.top.copy_from_slice(&out.vert);
+            return;
         }
+        // The strip kernel applies the standard rule; the swapped rule is the standard one with
+        // the cuts exchanged, exactly as in `sweep_row_with`.
+        let strip_cuts = match self.rule {
+            VertexRule::SwappedWeights => Cuts {
+                below: cuts.left,
+                left: cuts.below,
+            },
+            _ => cuts,
+        };
+        let max = self.boundary.max_color();
+        let mut scratch = std::mem::take(&mut out.strip);
+        let mut y = 1;
+        while y <= h {
+            let stop = out.next_stop(y);
+            if self.kernel == Kernel::Auto && stop - y + 1 < MIN_STRIP_ROWS {
+                // Too few rows before the next record for a strip to pay.
+                for row in y..=stop {
+                    self.sweep_reference_row(seed, index, row, cuts, out);
+                }
+            } else {
+                let mut run = StripRun {
+                    seed,
+                    index,
+                    cuts: strip_cuts,
+                    simd: self.kernel != Kernel::Portable,
+                    left: &out.left,
+                    right: &mut out.right,
+                };
+                let vert = &mut out.vert;
+                if fits::<u8>(max) {
+                    sweep_rows::<u8, 32>(&mut run, &mut scratch, vert, y, stop);
+                } else if fits::<u16>(max) {
+                    sweep_rows::<u16, 16>(&mut run, &mut scratch, vert, y, stop);
+                } else {
+                    sweep_rows::<u32, 8>(&mut run, &mut scratch, vert, y, stop);
+                }
+            }
+            out.record_row_line(stop);
+            out.record_heights(stop, &mut next_height);
+            y = stop + 1;
+        }
+        out.strip = scratch;
         out.top.copy_from_slice(&out.vert);
+    }
+
+    /// Row `y` by the reference kernel (the read-out's own scratch holds the words).
+    fn sweep_reference_row(&self, seed: u64, index: u64, y: usize, cuts: Cuts, out: &mut Readout) {
+        fill_words(seed, index, y as u64, &mut out.bytes, &mut out.words);
+        let carry_in = out.left[y - 1];
+        let record = out.needs_horizontal();
+        let horiz = if record {
+            Some(out.horiz.as_mut_slice())
+        } else {
+            None
+        };
+        let carry = sweep_row_with(self.rule, &mut out.vert, &out.words, carry_in, cuts, horiz);
+        out.right[y - 1] = carry;
+        if record {
+            out.record_columns(y, carry_in);
+        }
     }
 
     /// The colors leaving through the top and the right side of sample `index` (a convenience that
@@ -136,6 +202,10 @@ impl Model {
         r.outcome()
     }
 }
+
+/// Below this many rows between two records the row kernel is used (a strip's start-up and
+/// drain cost `L − 1` steps whatever its height).
+const MIN_STRIP_ROWS: usize = 4;
 
 /// Fills `words` with words `0..W` of stream `stream`, in bulk.
 #[inline]

@@ -17,6 +17,7 @@
 
 use motley_colorblind::Color;
 
+use crate::strip::StripScratch;
 use crate::{Configuration, Outcome, SixVertexError};
 
 /// A point of the height function and the threshold of colors it counts.
@@ -79,6 +80,7 @@ pub struct Readout {
     pub(crate) horiz: Vec<Color>,
     pub(crate) bytes: Vec<u8>,
     pub(crate) words: Vec<u32>,
+    pub(crate) strip: StripScratch,
 }
 
 fn sorted_lines(
@@ -136,7 +138,23 @@ impl Readout {
             horiz: vec![0; width],
             bytes: vec![0; 4 * width],
             words: vec![0; width],
+            strip: StripScratch::default(),
         })
+    }
+
+    /// The first row `≥ y` after which something must be recorded (a horizontal line or a height
+    /// query), or `H` if none: a strip of rows may not run past it.
+    pub(crate) fn next_stop(&self, y: usize) -> usize {
+        let line = self.row_lines.partition_point(|&r| r < y);
+        let line = self.row_lines.get(line).copied().unwrap_or(self.height);
+        let q = self
+            .height_order
+            .partition_point(|&k| self.heights[k].b < y);
+        let q = self
+            .height_order
+            .get(q)
+            .map_or(self.height, |&k| self.heights[k].b);
+        line.min(q).min(self.height)
     }
 
     /// Whether the sweep must record the horizontal edges of each row.

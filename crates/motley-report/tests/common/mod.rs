@@ -113,6 +113,7 @@ pub fn same_law(id: &str, rejected: bool, alpha: f64) -> ClaimResult {
             detectable: 0.0187,
         }),
         exact: None,
+        stated: None,
         estimates: Estimates {
             inclusion: vec![
                 series("top-exits", (1..=5).map(f64::from).collect(), vec![0.5, 0.42, 0.61, 0.33, 0.2], 0.01),
@@ -164,6 +165,7 @@ pub fn exact_law(id: &str) -> ClaimResult {
             outcomes: 11,
             error_bound: 1e-13,
         }),
+        stated: None,
         estimates: Estimates {
             ecdf: vec![Series { label: "exact law".into(), lower: y.clone(), upper: y.clone(), x: x.clone(), y: y.clone() }],
             reference: Some(series("density profile tail", x, y, 0.0)),
@@ -187,6 +189,7 @@ pub fn swap_probability(id: &str) -> ClaimResult {
         tests: vec![],
         effect: None,
         exact: None,
+        stated: None,
         estimates: Estimates {
             probabilities: vec![
                 interval("t = 5", 1800, 4000),
@@ -218,6 +221,7 @@ pub fn describe(id: &str) -> ClaimResult {
         tests: vec![],
         effect: None,
         exact: None,
+        stated: None,
         estimates: Estimates {
             probabilities: vec![interval("corner occupied", 1000, 4000)],
             ..Estimates::default()
@@ -240,12 +244,12 @@ pub fn run(claims: Vec<ClaimResult>) -> RunResult {
             samples: 20000,
             alpha: 0.01,
             power: 0.8,
-            shards: 1,
         },
         timing: Timing {
             wall_seconds: 12.34,
             threads: 2,
             samples_per_second: 3241.0,
+            shards: 1,
         },
         claims,
     }
