@@ -23,7 +23,14 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
     let s = &loaded.scenario;
     let p = plan(s, &loaded.file).map_err(|e| Failure::BadInput(e.to_string()))?;
     let t = threads(a.threads)?;
-    println!("{}: valid scenario `{}` ({} models, {} observables, {} claims)", loaded.file, s.name, s.models.len(), s.observables.len(), s.claims.len());
+    println!(
+        "{}: valid scenario `{}` ({} models, {} observables, {} claims)",
+        loaded.file,
+        s.name,
+        s.models.len(),
+        s.observables.len(),
+        s.claims.len()
+    );
     for (c, exact) in s.claims.iter().zip(&p.exact) {
         let how = if *exact { "exact laws" } else { "Monte Carlo" };
         println!("  claim {:<22} decided by {how}", c.id);

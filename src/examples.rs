@@ -7,12 +7,31 @@ use crate::exit::Failure;
 
 /// Name and text of every built-in example.
 pub const EXAMPLES: &[(&str, &str)] = &[
-    ("rainbow-symmetry", include_str!("../scenarios/rainbow-symmetry.yaml")),
-    ("rainbow-near-miss", include_str!("../scenarios/rainbow-near-miss.yaml")),
-    ("second-class-tasep", include_str!("../scenarios/second-class-tasep.yaml")),
-    ("packed-inverse", include_str!("../scenarios/packed-inverse.yaml")),
-    ("second-third-swap", include_str!("../scenarios/second-third-swap.yaml")),
+    (
+        "rainbow-symmetry",
+        include_str!("../scenarios/rainbow-symmetry.yaml"),
+    ),
+    (
+        "rainbow-near-miss",
+        include_str!("../scenarios/rainbow-near-miss.yaml"),
+    ),
+    (
+        "second-class-tasep",
+        include_str!("../scenarios/second-class-tasep.yaml"),
+    ),
+    (
+        "packed-inverse",
+        include_str!("../scenarios/packed-inverse.yaml"),
+    ),
+    (
+        "second-third-swap",
+        include_str!("../scenarios/second-third-swap.yaml"),
+    ),
     ("step-height", include_str!("../scenarios/step-height.yaml")),
+    (
+        "tasep-tracy-widom",
+        include_str!("../scenarios/tasep-tracy-widom.yaml"),
+    ),
 ];
 
 /// The text of example `name`.
@@ -54,7 +73,14 @@ pub fn command(a: ExamplesArgs) -> Result<(), Failure> {
             let list: Vec<(&str, &str)> = if name == "all" {
                 EXAMPLES.to_vec()
             } else {
-                vec![(EXAMPLES.iter().find(|(n, _)| *n == name).map(|(n, _)| *n).unwrap_or(""), find(&name)?)]
+                vec![(
+                    EXAMPLES
+                        .iter()
+                        .find(|(n, _)| *n == name)
+                        .map(|(n, _)| *n)
+                        .unwrap_or(""),
+                    find(&name)?,
+                )]
             };
             std::fs::create_dir_all(&to)
                 .map_err(|e| Failure::Runtime(format!("cannot create {}: {e}", to.display())))?;
@@ -75,5 +101,6 @@ fn copy_one(path: &Path, text: &str) -> Result<(), Failure> {
             path.display()
         )));
     }
-    std::fs::write(path, text).map_err(|e| Failure::Runtime(format!("cannot write {}: {e}", path.display())))
+    std::fs::write(path, text)
+        .map_err(|e| Failure::Runtime(format!("cannot write {}: {e}", path.display())))
 }

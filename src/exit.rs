@@ -25,7 +25,10 @@ impl Failure {
     /// The message printed after `motley: `.
     pub fn message(&self) -> &str {
         match self {
-            Failure::BadInput(m) | Failure::Runtime(m) | Failure::Rejected(m) | Failure::Interrupted(m) => m,
+            Failure::BadInput(m)
+            | Failure::Runtime(m)
+            | Failure::Rejected(m)
+            | Failure::Interrupted(m) => m,
         }
     }
 

@@ -35,16 +35,26 @@ pub fn load_text(text: String, file: String, samples: Option<u64>) -> Result<Loa
 /// Loads the scenario named by `source`.
 pub fn load(source: &Source, samples: Option<u64>) -> Result<Loaded, Failure> {
     let (text, file) = match (&source.file, &source.example) {
-        (_, Some(name)) => (crate::examples::find(name)?.to_string(), format!("example:{name}")),
+        (_, Some(name)) => (
+            crate::examples::find(name)?.to_string(),
+            format!("example:{name}"),
+        ),
         (Some(path), None) => {
             let file = path.display().to_string();
             let bytes = std::fs::read(path)
                 .map_err(|e| Failure::BadInput(format!("{file}: cannot read the scenario: {e}")))?;
-            let text = String::from_utf8(bytes)
-                .map_err(|_| Failure::BadInput(format!("{file}: not a text file (invalid UTF-8); a scenario is a YAML file")))?;
+            let text = String::from_utf8(bytes).map_err(|_| {
+                Failure::BadInput(format!(
+                    "{file}: not a text file (invalid UTF-8); a scenario is a YAML file"
+                ))
+            })?;
             (text, file)
         }
-        (None, None) => return Err(Failure::BadInput("give a scenario file or --example NAME".into())),
+        (None, None) => {
+            return Err(Failure::BadInput(
+                "give a scenario file or --example NAME".into(),
+            ))
+        }
     };
     load_text(text, file, samples)
 }
@@ -53,7 +63,9 @@ pub fn load(source: &Source, samples: Option<u64>) -> Result<Loaded, Failure> {
 pub fn threads(asked: Option<usize>) -> Result<usize, Failure> {
     match asked {
         Some(0) => Err(Failure::BadInput("--threads must be at least 1".into())),
-        Some(n) if n > 1024 => Err(Failure::BadInput(format!("--threads must be at most 1024, got {n}"))),
+        Some(n) if n > 1024 => Err(Failure::BadInput(format!(
+            "--threads must be at most 1024, got {n}"
+        ))),
         Some(n) => Ok(n),
         None => Ok(num_cpus::get().max(1)),
     }
@@ -63,7 +75,10 @@ pub fn threads(asked: Option<usize>) -> Result<usize, Failure> {
 /// bytes.
 pub fn parse_size(text: &str) -> Option<f64> {
     let t = text.trim();
-    let t = t.strip_suffix("iB").or_else(|| t.strip_suffix('B')).unwrap_or(t);
+    let t = t
+        .strip_suffix("iB")
+        .or_else(|| t.strip_suffix('B'))
+        .unwrap_or(t);
     let (digits, unit) = match t.char_indices().last() {
         Some((i, c)) if c.is_ascii_alphabetic() => (&t[..i], c.to_ascii_uppercase()),
         _ => (t, ' '),
@@ -93,11 +108,13 @@ fn available_memory() -> Option<f64> {
 pub fn memory_limit(asked: Option<&str>) -> Result<Option<(f64, &'static str)>, Failure> {
     match asked {
         Some(t) if t.trim().eq_ignore_ascii_case("none") => Ok(None),
-        Some(t) => parse_size(t).map(|b| Some((b, "--memory-limit"))).ok_or_else(|| {
-            Failure::BadInput(format!(
-                "--memory-limit must be a size like 512M or 4G (or `none`), got \"{t}\""
-            ))
-        }),
+        Some(t) => parse_size(t)
+            .map(|b| Some((b, "--memory-limit")))
+            .ok_or_else(|| {
+                Failure::BadInput(format!(
+                    "--memory-limit must be a size like 512M or 4G (or `none`), got \"{t}\""
+                ))
+            }),
         None => Ok(available_memory().map(|b| (b, "available memory"))),
     }
 }
@@ -152,6 +169,9 @@ mod tests {
         assert!(check_memory("f.yaml", 2e9, Some("1G")).is_err());
         assert!(check_memory("f.yaml", 5e8, Some("1G")).is_ok());
         assert!(check_memory("f.yaml", 1e300, Some("none")).is_ok());
-        assert!(matches!(check_memory("f.yaml", 1.0, Some("lots")), Err(Failure::BadInput(_))));
+        assert!(matches!(
+            check_memory("f.yaml", 1.0, Some("lots")),
+            Err(Failure::BadInput(_))
+        ));
     }
 }

@@ -1,14 +1,14 @@
 //! The `motley` command: scenario in, report out. Glue only: arguments, loading, running, printing
 //! errors with documented exit codes (see `exit.rs`).
 
+mod check_cmd;
 mod cli;
 mod examples;
 mod exit;
 mod input;
+mod merge_cmd;
 mod progress;
 mod run_cmd;
-mod check_cmd;
-mod merge_cmd;
 
 use clap::Parser;
 

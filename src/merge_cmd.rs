@@ -15,14 +15,20 @@ pub fn merge(a: MergeArgs) -> Result<(), Failure> {
     for dir in &a.shards {
         let file = dir.join(PARTIAL_FILE);
         let shown = file.display().to_string();
-        let text = std::fs::read_to_string(&file)
-            .map_err(|e| Failure::BadInput(format!("{shown}: cannot read a shard's partial result: {e}")))?;
+        let text = std::fs::read_to_string(&file).map_err(|e| {
+            Failure::BadInput(format!(
+                "{shown}: cannot read a shard's partial result: {e}"
+            ))
+        })?;
         let p: Partial = serde_json::from_str(&text)
             .map_err(|e| Failure::BadInput(format!("{shown}: not a valid partial result: {e}")))?;
         if scenario.is_none() {
             let sf = dir.join(SCENARIO_FILE);
             let t = std::fs::read_to_string(&sf).map_err(|e| {
-                Failure::BadInput(format!("{}: cannot read the shard's scenario: {e}", sf.display()))
+                Failure::BadInput(format!(
+                    "{}: cannot read the shard's scenario: {e}",
+                    sf.display()
+                ))
             })?;
             scenario = Some((t, sf.display().to_string()));
         }

@@ -25,9 +25,16 @@ pub const PARTIAL_FILE: &str = "partial.json";
 pub const SCENARIO_FILE: &str = "scenario.yaml";
 
 fn parse_shard(text: &str) -> Result<Shard, Failure> {
-    let bad = || Failure::BadInput(format!("--shard must look like K/N with 1 ≤ K ≤ N, got \"{text}\""));
+    let bad = || {
+        Failure::BadInput(format!(
+            "--shard must look like K/N with 1 ≤ K ≤ N, got \"{text}\""
+        ))
+    };
     let (k, n) = text.split_once('/').ok_or_else(bad)?;
-    let (k, n): (u64, u64) = (k.trim().parse().map_err(|_| bad())?, n.trim().parse().map_err(|_| bad())?);
+    let (k, n): (u64, u64) = (
+        k.trim().parse().map_err(|_| bad())?,
+        n.trim().parse().map_err(|_| bad())?,
+    );
     if n == 0 || k == 0 || k > n || n > 1 << 20 {
         return Err(bad());
     }
@@ -36,7 +43,10 @@ fn parse_shard(text: &str) -> Result<Shard, Failure> {
 
 /// `<dir>.checkpoint.json`, beside the output folder.
 pub fn checkpoint_path(out: &Path) -> PathBuf {
-    let mut name = out.file_name().map(|n| n.to_os_string()).unwrap_or_default();
+    let mut name = out
+        .file_name()
+        .map(|n| n.to_os_string())
+        .unwrap_or_default();
     name.push(".checkpoint.json");
     out.with_file_name(name)
 }
@@ -44,20 +54,38 @@ pub fn checkpoint_path(out: &Path) -> PathBuf {
 fn read_checkpoint(path: &Path, s: &Scenario, shard: Shard) -> Result<Partial, Failure> {
     let shown = path.display();
     let text = std::fs::read_to_string(path).map_err(|e| {
-        Failure::BadInput(format!("cannot resume: no readable checkpoint at {shown} ({e})"))
+        Failure::BadInput(format!(
+            "cannot resume: no readable checkpoint at {shown} ({e})"
+        ))
     })?;
     let p: Partial = serde_json::from_str(&text).map_err(|e| {
-        Failure::BadInput(format!("cannot resume: checkpoint {shown} is corrupt ({e}); delete it to start over"))
+        Failure::BadInput(format!(
+            "cannot resume: checkpoint {shown} is corrupt ({e}); delete it to start over"
+        ))
     })?;
-    let refuse = |why: String| Failure::BadInput(format!("cannot resume: checkpoint {shown} {why}; delete it to start over"));
+    let refuse = |why: String| {
+        Failure::BadInput(format!(
+            "cannot resume: checkpoint {shown} {why}; delete it to start over"
+        ))
+    };
     if p.schema != PARTIAL_SCHEMA {
-        return Err(refuse(format!("has schema `{}`, expected `{PARTIAL_SCHEMA}`", p.schema)));
+        return Err(refuse(format!(
+            "has schema `{}`, expected `{PARTIAL_SCHEMA}`",
+            p.schema
+        )));
     }
     if p.motley_version != motley_scenario::VERSION {
-        return Err(refuse(format!("was written by motley {}, this is {}", p.motley_version, motley_scenario::VERSION)));
+        return Err(refuse(format!(
+            "was written by motley {}, this is {}",
+            p.motley_version,
+            motley_scenario::VERSION
+        )));
     }
     if p.scenario_hash != s.hash {
-        return Err(refuse(format!("belongs to another scenario (hash {}, this file has {})", p.scenario_hash, s.hash)));
+        return Err(refuse(format!(
+            "belongs to another scenario (hash {}, this file has {})",
+            p.scenario_hash, s.hash
+        )));
     }
     if p.shard != shard || p.samples != s.samples {
         return Err(refuse(format!(
@@ -70,13 +98,24 @@ fn read_checkpoint(path: &Path, s: &Scenario, shard: Shard) -> Result<Partial, F
 
 /// Writes a folder holding `files` atomically: a staging folder renamed into place.
 pub fn write_folder(dir: &Path, files: &[(&str, Vec<u8>)], overwrite: bool) -> Result<(), Failure> {
-    let io = |what: &str, p: &Path, e: std::io::Error| Failure::Runtime(format!("could not {what} {}: {e}", p.display()));
+    let io = |what: &str, p: &Path, e: std::io::Error| {
+        Failure::Runtime(format!("could not {what} {}: {e}", p.display()))
+    };
     if dir.exists() && !overwrite {
-        return Err(Failure::BadInput(format!("folder {} exists; pass --overwrite to replace it", dir.display())));
+        return Err(Failure::BadInput(format!(
+            "folder {} exists; pass --overwrite to replace it",
+            dir.display()
+        )));
     }
-    let parent = dir.parent().filter(|p| !p.as_os_str().is_empty()).unwrap_or(Path::new("."));
+    let parent = dir
+        .parent()
+        .filter(|p| !p.as_os_str().is_empty())
+        .unwrap_or(Path::new("."));
     std::fs::create_dir_all(parent).map_err(|e| io("create", parent, e))?;
-    let name = dir.file_name().map(|n| n.to_string_lossy().to_string()).unwrap_or_default();
+    let name = dir
+        .file_name()
+        .map(|n| n.to_string_lossy().to_string())
+        .unwrap_or_default();
     let staging = parent.join(format!(".{name}.partial-{}", std::process::id()));
     let _ = std::fs::remove_dir_all(&staging);
     std::fs::create_dir_all(&staging).map_err(|e| io("create", &staging, e))?;
@@ -98,7 +137,10 @@ pub fn write_folder(dir: &Path, files: &[(&str, Vec<u8>)], overwrite: bool) -> R
 /// The report picture of the scenario's first six-vertex model.
 pub fn picture(s: &Scenario) -> Option<(Picture, String)> {
     let p = motley_scenario::picture::sample_picture(s)?;
-    let caption = format!("One sample (index 0) of model \"{}\", {}×{}", p.model, p.width, p.height);
+    let caption = format!(
+        "One sample (index 0) of model \"{}\", {}×{}",
+        p.model, p.width, p.height
+    );
     Some((
         Picture {
             width: p.width,
@@ -129,7 +171,9 @@ pub fn report(
         extras = extras.with_picture(pic, caption);
     }
     let dir = write_report(out, &result, &extras, overwrite).map_err(|e| match e {
-        motley_report::ReportError::Exists { .. } => Failure::BadInput(e.to_string()),
+        motley_report::ReportError::Exists { .. }
+        | motley_report::ReportError::NotAReport { .. }
+        | motley_report::ReportError::NoFolderName { .. } => Failure::BadInput(e.to_string()),
         other => Failure::Runtime(other.to_string()),
     })?;
     let mut rejected = Vec::new();
@@ -141,7 +185,10 @@ pub fn report(
     }
     println!("report: {}", dir.display());
     if fail_on_reject && !rejected.is_empty() {
-        return Err(Failure::Rejected(format!("claims rejected: {}", rejected.join(", "))));
+        return Err(Failure::Rejected(format!(
+            "claims rejected: {}",
+            rejected.join(", ")
+        )));
     }
     Ok(())
 }
@@ -165,7 +212,10 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         check_memory(&loaded.file, bytes, a.memory_limit.as_deref())?;
     }
     if !(a.checkpoint_every.is_finite() && a.checkpoint_every >= 0.0) {
-        return Err(Failure::BadInput(format!("--checkpoint-every must be a number of seconds ≥ 0, got {}", a.checkpoint_every)));
+        return Err(Failure::BadInput(format!(
+            "--checkpoint-every must be a number of seconds ≥ 0, got {}",
+            a.checkpoint_every
+        )));
     }
     let out = a.out.clone().unwrap_or_else(|| {
         let base = PathBuf::from("reports").join(&s.name);
@@ -179,6 +229,19 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
             "report folder {} exists; pass --overwrite to replace it",
             out.display()
         )));
+    }
+    // The report writer keeps a folder that is not a report even with --overwrite; say so before
+    // the run rather than after it.
+    let foreign = shard.is_none()
+        && out.is_dir()
+        && !out.join("result.json").exists()
+        && std::fs::read_dir(&out)
+            .map(|mut d| d.next().is_some())
+            .unwrap_or(true);
+    if foreign {
+        return Err(Failure::BadInput(
+            motley_report::ReportError::NotAReport { path: out.clone() }.to_string(),
+        ));
     }
     let shard_used = shard.unwrap_or(Shard::WHOLE);
     let cp = checkpoint_path(&out);
@@ -200,7 +263,9 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
             .map_err(|e| Failure::Runtime(format!("cannot install the signal handler: {e}")))?;
     }
     let (start, end) = shard_used.range(s.samples);
-    let per_unit_done = Arc::new(AtomicU64::new((partial.done - start) * p.units.len() as u64));
+    let per_unit_done = Arc::new(AtomicU64::new(
+        (partial.done - start) * p.units.len() as u64,
+    ));
     let total = (end - start) * p.units.len() as u64;
     let counter = Arc::new(AtomicU64::new(0));
     let bar = Progress::start(counter.clone(), total, a.quiet);
@@ -208,9 +273,20 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
     let step = ((end - start) / 50).max(motley_scenario::run::CHUNK * 8 * threads as u64);
     loop {
         let before = partial.done;
-        let complete = advance(s, &p, &mut partial, threads, &AtomicU64::new(0), &stop, Some(step))
-            .map_err(|e| Failure::Runtime(e.to_string()))?;
-        counter.fetch_add((partial.done - before) * p.units.len() as u64, std::sync::atomic::Ordering::Relaxed);
+        let complete = advance(
+            s,
+            &p,
+            &mut partial,
+            threads,
+            &AtomicU64::new(0),
+            &stop,
+            Some(step),
+        )
+        .map_err(|e| Failure::Runtime(e.to_string()))?;
+        counter.fetch_add(
+            (partial.done - before) * p.units.len() as u64,
+            std::sync::atomic::Ordering::Relaxed,
+        );
         if complete {
             break;
         }
@@ -233,15 +309,31 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
     let _ = per_unit_done;
     match shard {
         Some(sh) => {
-            let json = serde_json::to_vec_pretty(&partial).map_err(|e| Failure::Runtime(e.to_string()))?;
+            let json =
+                serde_json::to_vec_pretty(&partial).map_err(|e| Failure::Runtime(e.to_string()))?;
             write_folder(
                 &out,
-                &[(PARTIAL_FILE, json), (SCENARIO_FILE, loaded.text.clone().into_bytes())],
+                &[
+                    (PARTIAL_FILE, json),
+                    (SCENARIO_FILE, loaded.text.clone().into_bytes()),
+                ],
                 a.overwrite,
             )?;
-            println!("shard {}/{}: {} samples per unit written to {}", sh.index, sh.count, end - start, out.display());
+            println!(
+                "shard {}/{}: {} samples per unit written to {}",
+                sh.index,
+                sh.count,
+                end - start,
+                out.display()
+            );
         }
-        None => report(&loaded, std::slice::from_ref(&partial), &out, a.overwrite, a.fail_on_reject)?,
+        None => report(
+            &loaded,
+            std::slice::from_ref(&partial),
+            &out,
+            a.overwrite,
+            a.fail_on_reject,
+        )?,
     }
     let _ = std::fs::remove_file(&cp);
     Ok(())

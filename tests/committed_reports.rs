@@ -18,11 +18,22 @@ fn regenerating_the_reports_gives_the_same_results() {
     dirs.sort();
     for dir in dirs {
         let committed = comparable(&dir);
-        let samples = committed["scenario"]["samples"].as_u64().unwrap().to_string();
+        let samples = committed["scenario"]["samples"]
+            .as_u64()
+            .unwrap()
+            .to_string();
         let name = dir.file_name().unwrap().to_str().unwrap().to_string();
         let out = d.path().join(&name);
         let f = dir.join("scenario.yaml");
-        run_ok(&["run", f.to_str().unwrap(), "--out", out.to_str().unwrap(), "--samples", &samples, "--quiet"]);
+        run_ok(&[
+            "run",
+            f.to_str().unwrap(),
+            "--out",
+            out.to_str().unwrap(),
+            "--samples",
+            &samples,
+            "--quiet",
+        ]);
         assert_same(&committed, &comparable(&out), &format!("reports/{name}"));
         n += 1;
     }

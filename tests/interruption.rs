@@ -27,7 +27,10 @@ claims:
 ";
 
 fn signal(pid: u32, sig: &str) {
-    let ok = Command::new("kill").args([sig, &pid.to_string()]).status().unwrap();
+    let ok = Command::new("kill")
+        .args([sig, &pid.to_string()])
+        .status()
+        .unwrap();
     assert!(ok.success());
 }
 
@@ -38,7 +41,15 @@ fn killed_run_leaves_no_report() {
     std::fs::write(&f, SCENARIO).unwrap();
     let out = d.path().join("report");
     let mut child = motley()
-        .args(["run", f.to_str().unwrap(), "--out", out.to_str().unwrap(), "--threads", "1", "--quiet"])
+        .args([
+            "run",
+            f.to_str().unwrap(),
+            "--out",
+            out.to_str().unwrap(),
+            "--threads",
+            "1",
+            "--quiet",
+        ])
         .stdout(Stdio::null())
         .stderr(Stdio::null())
         .spawn()
@@ -46,7 +57,10 @@ fn killed_run_leaves_no_report() {
     std::thread::sleep(Duration::from_millis(1500));
     signal(child.id(), "-KILL");
     let status = child.wait().unwrap();
-    assert!(!status.success(), "the run finished before it was killed; make it longer");
+    assert!(
+        !status.success(),
+        "the run finished before it was killed; make it longer"
+    );
     assert!(!out.exists(), "a killed run left {}", out.display());
 }
 
@@ -59,7 +73,17 @@ fn terminated_run_resumes_to_the_uninterrupted_result() {
     let out = d.path().join("report");
     let o = out.to_str().unwrap();
     let child = motley()
-        .args(["run", f, "--out", o, "--threads", "1", "--quiet", "--checkpoint-every", "0"])
+        .args([
+            "run",
+            f,
+            "--out",
+            o,
+            "--threads",
+            "1",
+            "--quiet",
+            "--checkpoint-every",
+            "0",
+        ])
         .stdout(Stdio::null())
         .stderr(Stdio::piped())
         .spawn()
@@ -68,7 +92,11 @@ fn terminated_run_resumes_to_the_uninterrupted_result() {
     signal(child.id(), "-TERM");
     let done = child.wait_with_output().unwrap();
     let msg = String::from_utf8_lossy(&done.stderr);
-    assert_eq!(done.status.code(), Some(130), "expected an interruption: {msg}");
+    assert_eq!(
+        done.status.code(),
+        Some(130),
+        "expected an interruption: {msg}"
+    );
     assert!(msg.contains("checkpoint written"), "{msg}");
     assert!(!out.exists());
     let cp = d.path().join("report.checkpoint.json");
@@ -78,11 +106,27 @@ fn terminated_run_resumes_to_the_uninterrupted_result() {
     let again = run(&["run", f, "--out", o, "--quiet"]);
     assert_eq!(again.status.code(), Some(2));
 
-    run_ok(&["run", f, "--out", o, "--threads", "2", "--quiet", "--resume"]);
-    assert!(!cp.exists(), "the checkpoint is removed once the report is written");
+    run_ok(&[
+        "run",
+        f,
+        "--out",
+        o,
+        "--threads",
+        "2",
+        "--quiet",
+        "--resume",
+    ]);
+    assert!(
+        !cp.exists(),
+        "the checkpoint is removed once the report is written"
+    );
     let whole = d.path().join("whole");
     run_ok(&["run", f, "--out", whole.to_str().unwrap(), "--quiet"]);
-    assert_same(&comparable(&out), &comparable(&whole), "resumed vs uninterrupted");
+    assert_same(
+        &comparable(&out),
+        &comparable(&whole),
+        "resumed vs uninterrupted",
+    );
 }
 
 #[test]
@@ -93,16 +137,44 @@ fn foreign_or_corrupt_checkpoints_are_refused() {
     let out = d.path().join("report");
     let cp = d.path().join("report.checkpoint.json");
     std::fs::write(&cp, "{ not json").unwrap();
-    let r = run(&["run", f.to_str().unwrap(), "--out", out.to_str().unwrap(), "--resume", "--quiet"]);
+    let r = run(&[
+        "run",
+        f.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+        "--resume",
+        "--quiet",
+    ]);
     assert_eq!(r.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&r.stderr).contains("is corrupt"));
     // A checkpoint of another scenario: make one by interrupting nothing, just writing a partial.
     let other = d.path().join("other.yaml");
-    std::fs::write(&other, SCENARIO.replace("seed: 5", "seed: 6").replace("samples: 200000", "samples: 500")).unwrap();
+    std::fs::write(
+        &other,
+        SCENARIO
+            .replace("seed: 5", "seed: 6")
+            .replace("samples: 200000", "samples: 500"),
+    )
+    .unwrap();
     let sh = d.path().join("shard");
-    run_ok(&["run", other.to_str().unwrap(), "--shard", "1/1", "--out", sh.to_str().unwrap(), "--quiet"]);
+    run_ok(&[
+        "run",
+        other.to_str().unwrap(),
+        "--shard",
+        "1/1",
+        "--out",
+        sh.to_str().unwrap(),
+        "--quiet",
+    ]);
     std::fs::copy(sh.join("partial.json"), &cp).unwrap();
-    let r = run(&["run", f.to_str().unwrap(), "--out", out.to_str().unwrap(), "--resume", "--quiet"]);
+    let r = run(&[
+        "run",
+        f.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+        "--resume",
+        "--quiet",
+    ]);
     assert_eq!(r.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&r.stderr).contains("belongs to another scenario"));
     assert!(!out.exists());

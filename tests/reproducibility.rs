@@ -48,8 +48,24 @@ fn thread_count_does_not_change_the_result() {
     let f = f.to_str().unwrap();
     let one = d.path().join("one");
     let two = d.path().join("two");
-    run_ok(&["run", f, "--out", one.to_str().unwrap(), "--threads", "1", "--quiet"]);
-    run_ok(&["run", f, "--out", two.to_str().unwrap(), "--threads", "2", "--quiet"]);
+    run_ok(&[
+        "run",
+        f,
+        "--out",
+        one.to_str().unwrap(),
+        "--threads",
+        "1",
+        "--quiet",
+    ]);
+    run_ok(&[
+        "run",
+        f,
+        "--out",
+        two.to_str().unwrap(),
+        "--threads",
+        "2",
+        "--quiet",
+    ]);
     assert_same(&comparable(&one), &comparable(&two), "--threads 1 vs 2");
 }
 
@@ -81,7 +97,15 @@ fn run_shards_and_merge(dir: &std::path::Path, f: &str, use_parallel: bool) -> s
     } else {
         for k in 1..=4 {
             let shard = format!("{k}/4");
-            run_ok(&["run", f, "--quiet", "--shard", &shard, "--out", shard_dir(k).to_str().unwrap()]);
+            run_ok(&[
+                "run",
+                f,
+                "--quiet",
+                "--shard",
+                &shard,
+                "--out",
+                shard_dir(k).to_str().unwrap(),
+            ]);
         }
     }
     let merged = dir.join("merged");
@@ -94,7 +118,10 @@ fn run_shards_and_merge(dir: &std::path::Path, f: &str, use_parallel: bool) -> s
 }
 
 fn have_parallel() -> bool {
-    Command::new("parallel").arg("--version").output().is_ok_and(|o| o.status.success())
+    Command::new("parallel")
+        .arg("--version")
+        .output()
+        .is_ok_and(|o| o.status.success())
 }
 
 #[test]
@@ -107,10 +134,17 @@ fn four_shards_merged_equal_one_run() {
     let use_parallel = have_parallel();
     // CI installs GNU parallel; there its absence is an error, not a reason to skip.
     if std::env::var("CI").is_ok_and(|v| v == "true") {
-        assert!(use_parallel, "CI must provide GNU parallel for the shard test");
+        assert!(
+            use_parallel,
+            "CI must provide GNU parallel for the shard test"
+        );
     }
     let merged = run_shards_and_merge(d.path(), f, use_parallel);
-    assert_same(&comparable(&single), &comparable(&merged), "4 shards merged vs one run");
+    assert_same(
+        &comparable(&single),
+        &comparable(&merged),
+        "4 shards merged vs one run",
+    );
 }
 
 #[test]
@@ -120,7 +154,17 @@ fn merge_refuses_missing_duplicate_and_foreign_shards() {
     let f = f.to_str().unwrap();
     let shard = |k: u32| d.path().join(format!("s{k}")).display().to_string();
     for k in 1..=3 {
-        run_ok(&["run", f, "--quiet", "--samples", "600", "--shard", &format!("{k}/3"), "--out", &shard(k)]);
+        run_ok(&[
+            "run",
+            f,
+            "--quiet",
+            "--samples",
+            "600",
+            "--shard",
+            &format!("{k}/3"),
+            "--out",
+            &shard(k),
+        ]);
     }
     let out = d.path().join("m").display().to_string();
     let missing = run(&["merge", &shard(1), &shard(3), "--out", &out]);
@@ -129,17 +173,38 @@ fn merge_refuses_missing_duplicate_and_foreign_shards() {
     assert!(msg.contains("shards missing: 2 of 3 (have 1, 3)"), "{msg}");
     assert!(!d.path().join("m").exists());
 
-    let dup = run(&["merge", &shard(1), &shard(2), &shard(2), &shard(3), "--out", &out]);
+    let dup = run(&[
+        "merge",
+        &shard(1),
+        &shard(2),
+        &shard(2),
+        &shard(3),
+        "--out",
+        &out,
+    ]);
     assert_eq!(dup.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&dup.stderr).contains("shard 2/3 is given twice"));
 
     // A shard of another scenario (another seed, hence another hash).
     let other = d.path().join("other.yaml");
     std::fs::write(&other, SCENARIO.replace("seed: 99", "seed: 100")).unwrap();
-    run_ok(&["run", other.to_str().unwrap(), "--quiet", "--samples", "600", "--shard", "2/3", "--out", &shard(9)]);
+    run_ok(&[
+        "run",
+        other.to_str().unwrap(),
+        "--quiet",
+        "--samples",
+        "600",
+        "--shard",
+        "2/3",
+        "--out",
+        &shard(9),
+    ]);
     let foreign = run(&["merge", &shard(1), &shard(9), &shard(3), "--out", &out]);
     assert_eq!(foreign.status.code(), Some(2));
     let msg = String::from_utf8_lossy(&foreign.stderr);
-    assert!(msg.contains("belongs to scenario `repro` with hash"), "{msg}");
+    assert!(
+        msg.contains("belongs to scenario `repro` with hash"),
+        "{msg}"
+    );
     assert!(!d.path().join("m").exists());
 }

@@ -9,7 +9,8 @@ mod schema;
 use common::*;
 
 fn schema() -> serde_json::Value {
-    serde_json::from_str(&std::fs::read_to_string(root().join("docs/result.schema.json")).unwrap()).unwrap()
+    serde_json::from_str(&std::fs::read_to_string(root().join("docs/result.schema.json")).unwrap())
+        .unwrap()
 }
 
 fn result(dir: &std::path::Path) -> serde_json::Value {
@@ -30,7 +31,15 @@ fn fresh_results_of_every_worked_scenario_validate() {
     ] {
         let out = d.path().join(name);
         let f = scenario(name);
-        run_ok(&["run", f.to_str().unwrap(), "--out", out.to_str().unwrap(), "--samples", samples, "--quiet"]);
+        run_ok(&[
+            "run",
+            f.to_str().unwrap(),
+            "--out",
+            out.to_str().unwrap(),
+            "--samples",
+            samples,
+            "--quiet",
+        ]);
         let errors = schema::validate(&s, &result(&out));
         assert!(errors.is_empty(), "{name}: {errors:#?}");
     }
@@ -57,7 +66,15 @@ fn a_broken_result_does_not_validate() {
     let d = tempfile::tempdir().unwrap();
     let out = d.path().join("r");
     let f = scenario("rainbow-symmetry");
-    run_ok(&["run", f.to_str().unwrap(), "--out", out.to_str().unwrap(), "--samples", "500", "--quiet"]);
+    run_ok(&[
+        "run",
+        f.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+        "--samples",
+        "500",
+        "--quiet",
+    ]);
     let mut v = result(&out);
     v["claims"][0]["rejected"] = serde_json::json!("no");
     v["scenario"]["extra"] = serde_json::json!(1);

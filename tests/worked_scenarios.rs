@@ -12,7 +12,13 @@ fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join(name);
     let path = scenario(name);
-    let mut args = vec!["run", path.to_str().unwrap(), "--out", out.to_str().unwrap(), "--quiet"];
+    let mut args = vec![
+        "run",
+        path.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+        "--quiet",
+    ];
     args.extend_from_slice(extra);
     run_ok(&args);
     for f in ["summary.md", "result.json", "scenario.yaml"] {
@@ -89,7 +95,11 @@ fn built_in_examples_match_the_files() {
             let name = p.file_stem().unwrap().to_str().unwrap().to_string();
             assert!(list.contains(&name), "example {name} not listed");
             let shown = run_ok(&["examples", "show", &name]).stdout;
-            assert_eq!(shown, std::fs::read(&p).unwrap(), "example {name} differs from its file");
+            assert_eq!(
+                shown,
+                std::fs::read(&p).unwrap(),
+                "example {name} differs from its file"
+            );
         }
     }
 }

@@ -29,13 +29,33 @@ fn check(root: &Value, s: &Value, v: &Value, path: &str, errors: &mut Vec<String
     let s = s.as_object().expect("schema nodes are objects");
     for key in s.keys() {
         let known = [
-            "$schema", "$id", "title", "type", "required", "properties", "additionalProperties",
-            "items", "enum", "const", "anyOf", "$ref", "$defs", "pattern", "minimum",
+            "$schema",
+            "$id",
+            "title",
+            "type",
+            "required",
+            "properties",
+            "additionalProperties",
+            "items",
+            "enum",
+            "const",
+            "anyOf",
+            "$ref",
+            "$defs",
+            "pattern",
+            "minimum",
         ];
-        assert!(known.contains(&key.as_str()), "schema keyword {key} is not supported by the checker");
+        assert!(
+            known.contains(&key.as_str()),
+            "schema keyword {key} is not supported by the checker"
+        );
     }
     if let Some(r) = s.get("$ref") {
-        let name = r.as_str().unwrap().strip_prefix("#/$defs/").expect("local $ref");
+        let name = r
+            .as_str()
+            .unwrap()
+            .strip_prefix("#/$defs/")
+            .expect("local $ref");
         check(root, &root["$defs"][name], v, path, errors);
         return;
     }
@@ -74,7 +94,11 @@ fn check(root: &Value, s: &Value, v: &Value, path: &str, errors: &mut Vec<String
     if let Some(p) = s.get("pattern") {
         assert_eq!(p, "^[0-9a-f]{64}$", "the checker knows one pattern only");
         let t = v.as_str().unwrap_or("");
-        if t.len() != 64 || !t.chars().all(|c| c.is_ascii_hexdigit() && !c.is_ascii_uppercase()) {
+        if t.len() != 64
+            || !t
+                .chars()
+                .all(|c| c.is_ascii_hexdigit() && !c.is_ascii_uppercase())
+        {
             errors.push(format!("{path}: {t} is not 64 lowercase hex digits"));
         }
     }

@@ -19,7 +19,9 @@ use std::hint::black_box;
 fn ring_limit(c: &mut Criterion) {
     let n = 100_000usize;
     let moves = 10_000_000usize;
-    let mut sites: Vec<u16> = (0..n as u32).map(|i| ((i * 7 + i / 13) % 5) as u16).collect();
+    let mut sites: Vec<u16> = (0..n as u32)
+        .map(|i| ((i * 7 + i / 13) % 5) as u16)
+        .collect();
     let mut bytes = [0u8; 1024];
     let mut g = c.benchmark_group("ring_1e5_tasep");
     g.sample_size(10);

@@ -51,7 +51,11 @@ impl Chebyshev {
     /// Largest |c_k| among the last three coefficients: a cheap truncation-error indicator.
     #[cfg(test)]
     pub(crate) fn tail(&self) -> f64 {
-        self.coeffs.iter().rev().take(3).fold(0.0, |m, c| m.max(c.abs()))
+        self.coeffs
+            .iter()
+            .rev()
+            .take(3)
+            .fold(0.0, |m, c| m.max(c.abs()))
     }
 }
 

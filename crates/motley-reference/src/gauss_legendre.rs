@@ -112,7 +112,10 @@ mod tests {
             for k in 0..(2 * m) {
                 let got = rule.integrate(0.0, 1.0, |x| x.powi(k as i32));
                 let want = 1.0 / (k as f64 + 1.0);
-                assert!((got - want).abs() < 1e-13, "m = {m}, k = {k}: {got} vs {want}");
+                assert!(
+                    (got - want).abs() < 1e-13,
+                    "m = {m}, k = {k}: {got} vs {want}"
+                );
             }
             // Degree 2m is not integrated exactly (near miss must visibly fail; for large m the
             // error 2^{2m}(m!)^4/((2m+1)((2m)!)^3) · (2m)! falls below rounding, so small m only).

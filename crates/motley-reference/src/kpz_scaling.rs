@@ -96,7 +96,10 @@ impl SixVertexFluctuation {
     /// As [`SixVertexStep::fluctuation_scale`].
     pub fn new(model: SixVertexStep, x: f64, y: f64) -> Result<Self, ReferenceError> {
         let sigma = model.fluctuation_scale(x, y)?;
-        Ok(SixVertexFluctuation { h: model.height(x, y), sigma })
+        Ok(SixVertexFluctuation {
+            h: model.height(x, y),
+            sigma,
+        })
     }
 
     /// σ(x, y).

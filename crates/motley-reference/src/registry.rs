@@ -203,7 +203,10 @@ pub fn profile_by_name(name: &str) -> Result<ProfileKind, ReferenceError> {
         "tasep-step-count" => Ok(ProfileKind::TasepStepCount),
         "six-vertex-step-height" => Ok(ProfileKind::SixVertexStepHeight),
         "six-vertex-step-density" => Ok(ProfileKind::SixVertexStepDensity),
-        _ => Err(ReferenceError::UnknownName { name: name.to_string(), known: PROFILE_NAMES.join(", ") }),
+        _ => Err(ReferenceError::UnknownName {
+            name: name.to_string(),
+            known: PROFILE_NAMES.join(", "),
+        }),
     }
 }
 
@@ -243,7 +246,10 @@ impl ReferenceProfile {
         match kind {
             ProfileKind::SixVertexStepHeight => Ok(ReferenceProfile::SixVertexStepHeight(model)),
             ProfileKind::SixVertexStepDensity => Ok(ReferenceProfile::SixVertexStepDensity(model)),
-            _ => Err(mismatch(kind, "six-vertex-step-height, six-vertex-step-density")),
+            _ => Err(mismatch(
+                kind,
+                "six-vertex-step-height, six-vertex-step-density",
+            )),
         }
     }
 
@@ -270,7 +276,10 @@ impl ReferenceProfile {
 
 fn mismatch(kind: ProfileKind, known: &str) -> ReferenceError {
     let name = PROFILE_NAMES[kind as usize];
-    ReferenceError::UnknownName { name: name.to_string(), known: known.to_string() }
+    ReferenceError::UnknownName {
+        name: name.to_string(),
+        known: known.to_string(),
+    }
 }
 
 #[cfg(test)]
@@ -282,7 +291,9 @@ mod tests {
         for name in PROFILE_NAMES {
             let kind = profile_by_name(name).unwrap();
             let p = ReferenceProfile::exclusion(kind, TasepStep::tasep())
-                .or_else(|_| ReferenceProfile::six_vertex(kind, SixVertexStep::from_kappa(2.0).unwrap()))
+                .or_else(|_| {
+                    ReferenceProfile::six_vertex(kind, SixVertexStep::from_kappa(2.0).unwrap())
+                })
                 .unwrap();
             assert_eq!(p.name(), name);
         }
@@ -295,7 +306,10 @@ mod tests {
         }
         let err = profile_by_name("six-vertex-step").unwrap_err().to_string();
         assert!(err.contains("six-vertex-step-height"), "{err}");
-        assert!(ReferenceProfile::exclusion(ProfileKind::SixVertexStepHeight, TasepStep::tasep()).is_err());
+        assert!(
+            ReferenceProfile::exclusion(ProfileKind::SixVertexStepHeight, TasepStep::tasep())
+                .is_err()
+        );
     }
 
     #[test]
@@ -323,9 +337,15 @@ mod tests {
                 cuts.retain(|&c| c < x);
                 cuts.push(x);
                 cuts.sort_by(f64::total_cmp);
-                let integral: f64 =
-                    cuts.windows(2).map(|w| gl.integrate(w[0], w[1], |u| law.pdf(u))).sum();
-                assert!((integral - law.cdf(x)).abs() < 1e-12, "{law:?} {x}: {integral} {}", law.cdf(x));
+                let integral: f64 = cuts
+                    .windows(2)
+                    .map(|w| gl.integrate(w[0], w[1], |u| law.pdf(u)))
+                    .sum();
+                assert!(
+                    (integral - law.cdf(x)).abs() < 1e-12,
+                    "{law:?} {x}: {integral} {}",
+                    law.cdf(x)
+                );
             }
         }
         assert!(ReferenceLaw::six_vertex_exit_speed(0.6, 0.2).is_err());

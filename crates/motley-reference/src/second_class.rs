@@ -62,7 +62,9 @@ mod tests {
         assert!(asep_collision_probability(1.01).is_err());
         assert!(asep_collision_probability(f64::NAN).is_err());
         // decreasing in p
-        assert!(asep_collision_probability(0.6).unwrap() > asep_collision_probability(0.9).unwrap());
+        assert!(
+            asep_collision_probability(0.6).unwrap() > asep_collision_probability(0.9).unwrap()
+        );
         assert!((second_class_speed_half_width(0.8, 0.2).unwrap() - 0.6).abs() < 1e-15);
         assert!(second_class_speed_half_width(0.2, 0.8).is_err());
     }

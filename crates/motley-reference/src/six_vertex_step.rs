@@ -63,9 +63,14 @@ impl SixVertexStep {
             }
         }
         if b2 == 1.0 {
-            return Err(ReferenceError::NotPositive { name: "1 - b2", value: 0.0 });
+            return Err(ReferenceError::NotPositive {
+                name: "1 - b2",
+                value: 0.0,
+            });
         }
-        Ok(SixVertexStep { kappa: (1.0 - b1) / (1.0 - b2) })
+        Ok(SixVertexStep {
+            kappa: (1.0 - b1) / (1.0 - b2),
+        })
     }
 
     /// Directly from κ ≥ 0.
@@ -75,10 +80,16 @@ impl SixVertexStep {
     /// (κ = 0 means b1 = 1: paths never turn, a degenerate model).
     pub fn from_kappa(kappa: f64) -> Result<Self, ReferenceError> {
         if !kappa.is_finite() {
-            return Err(ReferenceError::NotFinite { name: "kappa", value: kappa });
+            return Err(ReferenceError::NotFinite {
+                name: "kappa",
+                value: kappa,
+            });
         }
         if kappa <= 0.0 {
-            return Err(ReferenceError::NotPositive { name: "kappa", value: kappa });
+            return Err(ReferenceError::NotPositive {
+                name: "kappa",
+                value: kappa,
+            });
         }
         Ok(SixVertexStep { kappa })
     }
@@ -271,18 +282,26 @@ mod tests {
             assert_eq!(m.height(0.3, 1.0), 0.7);
             assert_eq!(m.height(1.3, 1.0), 0.0);
             assert_eq!(m.density(0.99, 1.0), 1.0);
-            assert!(matches!(m.fluctuation_scale(1.0, 1.0), Err(ReferenceError::NoCurvedRegion { .. })));
+            assert!(matches!(
+                m.fluctuation_scale(1.0, 1.0),
+                Err(ReferenceError::NoCurvedRegion { .. })
+            ));
             assert!(m.exit_speed_tail(1.0).is_err());
         }
         let m = SixVertexStep::from_kappa(2.0).unwrap();
-        assert!(matches!(m.fluctuation_scale(0.4, 1.0), Err(ReferenceError::OutsideCurvedRegion { .. })));
+        assert!(matches!(
+            m.fluctuation_scale(0.4, 1.0),
+            Err(ReferenceError::OutsideCurvedRegion { .. })
+        ));
         assert!(m.fluctuation_scale(2.0, 1.0).is_err());
         assert!(SixVertexStep::from_weights(1.2, 0.5).is_err());
         assert!(SixVertexStep::from_weights(0.2, 1.0).is_err());
         assert!(SixVertexStep::from_kappa(0.0).is_err());
         assert!(SixVertexStep::from_kappa(f64::INFINITY).is_err());
         assert_eq!(
-            SixVertexStep::from_weights(1.2, 0.5).unwrap_err().to_string(),
+            SixVertexStep::from_weights(1.2, 0.5)
+                .unwrap_err()
+                .to_string(),
             "`b1` must lie in [0, 1], got 1.2"
         );
     }

@@ -107,12 +107,20 @@ mod tests {
         assert!((law.cdf(1.0, 1.0) - 1.0).abs() < 1e-15);
         assert_eq!(law.cdf(-1.0, 0.3), 0.0);
         assert_eq!(law.cdf(5.0, 9.0), law.cdf(1.0, 1.0));
-        let sum = SpeedProcessPair::P_SWAPPED + SpeedProcessPair::P_TIED + SpeedProcessPair::P_INITIAL_ORDER;
+        let sum = SpeedProcessPair::P_SWAPPED
+            + SpeedProcessPair::P_TIED
+            + SpeedProcessPair::P_INITIAL_ORDER;
         assert!((sum - 1.0).abs() < 1e-15);
         for i in 0..=40 {
             let a = -1.0 + 0.05 * i as f64;
-            assert!((law.marginal_cdf_first(a) - (a + 1.0) / 2.0).abs() < 1e-12, "{a}");
-            assert!((law.marginal_cdf_second(a) - (a + 1.0) / 2.0).abs() < 1e-12, "{a}");
+            assert!(
+                (law.marginal_cdf_first(a) - (a + 1.0) / 2.0).abs() < 1e-12,
+                "{a}"
+            );
+            assert!(
+                (law.marginal_cdf_second(a) - (a + 1.0) / 2.0).abs() < 1e-12,
+                "{a}"
+            );
         }
     }
 
@@ -123,12 +131,23 @@ mod tests {
         // diagonal mass.
         let law = SpeedProcessPair;
         let gl = GaussLegendre::new(8);
-        for (a, b) in [(0.3f64, -0.2f64), (-0.5, 0.7), (0.9, 0.9), (0.0, 0.0), (-0.99, 1.0), (0.4, 0.45)] {
+        for (a, b) in [
+            (0.3f64, -0.2f64),
+            (-0.5, 0.7),
+            (0.9, 0.9),
+            (0.0, 0.0),
+            (-0.99, 1.0),
+            (0.4, 0.45),
+        ] {
             // Outer integral over u₀ split at u₀ = b, where the inner integrand has a kink.
             let inner = |u0: f64| {
                 let cut = u0.clamp(-1.0, b);
                 let below = gl.integrate(-1.0, cut, |_| 0.25);
-                let above = if b > u0 { gl.integrate(u0, b, |u1| 0.25 * (u1 - u0)) } else { 0.0 };
+                let above = if b > u0 {
+                    gl.integrate(u0, b, |u1| 0.25 * (u1 - u0))
+                } else {
+                    0.0
+                };
                 below + above
             };
             let m = a.min(b);
@@ -137,7 +156,11 @@ mod tests {
                 total += gl.integrate(m, a, inner);
             }
             total += gl.integrate(-1.0, a.min(b), |u| law.diagonal_density(u));
-            assert!((law.cdf(a, b) - total).abs() < 1e-12, "({a}, {b}): {} vs {total}", law.cdf(a, b));
+            assert!(
+                (law.cdf(a, b) - total).abs() < 1e-12,
+                "({a}, {b}): {} vs {total}",
+                law.cdf(a, b)
+            );
         }
         // The pieces: P(U₀ > U₁) = 1/2, P(U₀ < U₁) = 1/3, diagonal 1/6.
         let swapped = gl.integrate(-1.0, 1.0, |u0| gl.integrate(-1.0, u0, |_| 0.25));
@@ -153,7 +176,8 @@ mod tests {
         // A diagonal with constant density 1/12 (same mass 1/6) breaks uniformity of U₀.
         let law = SpeedProcessPair;
         let a: f64 = 0.5;
-        let wrong = law.cdf(a, 1.0) - ((a + 1.0) - (a * a * a + 1.0) / 3.0) / 8.0 + (a + 1.0) / 12.0;
+        let wrong =
+            law.cdf(a, 1.0) - ((a + 1.0) - (a * a * a + 1.0) / 3.0) / 8.0 + (a + 1.0) / 12.0;
         assert!((wrong - (a + 1.0) / 2.0).abs() > 1e-3);
     }
 }

@@ -55,11 +55,17 @@ impl TasepStep {
             }
         }
         if q < 0.0 {
-            return Err(ReferenceError::NotPositive { name: "q", value: q });
+            return Err(ReferenceError::NotPositive {
+                name: "q",
+                value: q,
+            });
         }
         let speed = p - q;
         if speed <= 0.0 {
-            return Err(ReferenceError::NotPositive { name: "p - q", value: speed });
+            return Err(ReferenceError::NotPositive {
+                name: "p - q",
+                value: speed,
+            });
         }
         Ok(TasepStep { speed })
     }
@@ -121,7 +127,9 @@ mod tests {
             let n = 200_000;
             let hi = 25.0f64;
             let h = (hi - x) / n as f64;
-            let integral: f64 = (0..n).map(|i| m.density(x + (i as f64 + 0.5) * h, t) * h).sum();
+            let integral: f64 = (0..n)
+                .map(|i| m.density(x + (i as f64 + 0.5) * h, t) * h)
+                .sum();
             let want = if x < hi { integral } else { 0.0 };
             assert!((m.particles_right_of(x, t) - want).abs() < 1e-6, "{x}");
         }

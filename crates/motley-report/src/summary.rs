@@ -299,7 +299,14 @@ fn claim_section(
             num(e.upper_bound),
             num(e.detectable)
         );
-        if !is_exact(claim) {
+        if is_describe(claim) {
+            let _ = writeln!(
+                s,
+                "Nothing is tested here: the distance to the reference is shown with its {}% upper bound. \
+                 On integer-valued data the distance includes the lattice's own steps.\n",
+                num(100.0 * (1.0 - alpha))
+            );
+        } else if !is_exact(claim) {
             let shows = if claim.rejected {
                 format!(
                     "What the run shows: a difference was found; the {} is estimated at {} and is at most {} \
@@ -364,7 +371,10 @@ fn estimates(s: &mut String, claim: &ClaimResult) {
             "Stated value"
         };
         let _ = writeln!(s, "### {what}\n");
-        let _ = writeln!(s, "| Value | Estimate | Estimate − value | ± (1 − α interval) |");
+        let _ = writeln!(
+            s,
+            "| Value | Estimate | Estimate − value | ± (1 − α interval) |"
+        );
         let _ = writeln!(s, "|---|---|---|---|");
         let _ = writeln!(
             s,

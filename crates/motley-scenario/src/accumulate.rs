@@ -85,7 +85,10 @@ mod pairs {
 
     use serde::{Deserialize, Deserializer, Serialize, Serializer};
 
-    pub fn serialize<K: Serialize, S: Serializer>(m: &BTreeMap<K, u64>, s: S) -> Result<S::Ok, S::Error> {
+    pub fn serialize<K: Serialize, S: Serializer>(
+        m: &BTreeMap<K, u64>,
+        s: S,
+    ) -> Result<S::Ok, S::Error> {
         s.collect_seq(m.iter())
     }
 
@@ -101,14 +104,19 @@ mod pairs_opt {
 
     use serde::{Deserialize, Deserializer, Serializer};
 
-    pub fn serialize<S: Serializer>(m: &Option<BTreeMap<super::Mask, u64>>, s: S) -> Result<S::Ok, S::Error> {
+    pub fn serialize<S: Serializer>(
+        m: &Option<BTreeMap<super::Mask, u64>>,
+        s: S,
+    ) -> Result<S::Ok, S::Error> {
         match m {
             Some(m) => s.serialize_some(&m.iter().collect::<Vec<_>>()),
             None => s.serialize_none(),
         }
     }
 
-    pub fn deserialize<'de, D: Deserializer<'de>>(d: D) -> Result<Option<BTreeMap<super::Mask, u64>>, D::Error> {
+    pub fn deserialize<'de, D: Deserializer<'de>>(
+        d: D,
+    ) -> Result<Option<BTreeMap<super::Mask, u64>>, D::Error> {
         Ok(Option::<Vec<(super::Mask, u64)>>::deserialize(d)?.map(|v| v.into_iter().collect()))
     }
 }
@@ -122,7 +130,9 @@ mod pairs_four {
         s.collect_seq(m.iter().map(|h| h.iter().collect::<Vec<_>>()))
     }
 
-    pub fn deserialize<'de, D: Deserializer<'de>>(d: D) -> Result<[BTreeMap<u64, u64>; 4], D::Error> {
+    pub fn deserialize<'de, D: Deserializer<'de>>(
+        d: D,
+    ) -> Result<[BTreeMap<u64, u64>; 4], D::Error> {
         let v = <[Vec<(u64, u64)>; 4]>::deserialize(d)?;
         Ok(v.map(|h| h.into_iter().collect()))
     }
@@ -187,7 +197,11 @@ impl Accumulator {
         }
         let min = elements.first().map_or(EMPTY_SUMMARY, |&m| m as u64);
         let max = elements.last().map_or(EMPTY_SUMMARY, |&m| m as u64);
-        for (h, v) in s.summaries.iter_mut().zip([elements.len() as u64, min, max, sum]) {
+        for (h, v) in s
+            .summaries
+            .iter_mut()
+            .zip([elements.len() as u64, min, max, sum])
+        {
             *h.entry(v).or_insert(0) += 1;
         }
     }
@@ -230,7 +244,9 @@ impl Accumulator {
                     add_counts(ha, hb);
                 }
             }
-            (Accumulator::Scalar(a), Accumulator::Scalar(b)) => a.values.extend_from_slice(&b.values),
+            (Accumulator::Scalar(a), Accumulator::Scalar(b)) => {
+                a.values.extend_from_slice(&b.values)
+            }
             (Accumulator::Event(a), Accumulator::Event(b)) => {
                 a.n += b.n;
                 a.yes += b.yes;
@@ -294,8 +310,13 @@ mod tests {
         }
         let json = serde_json::to_string(&whole).unwrap();
         assert_eq!(serde_json::from_str::<Accumulator>(&json).unwrap(), whole);
-        let Accumulator::Set(s) = &whole else { unreachable!() };
-        assert_eq!(s.inclusion.iter().sum::<u64>(), data.iter().map(|d| d.len() as u64).sum());
+        let Accumulator::Set(s) = &whole else {
+            unreachable!()
+        };
+        assert_eq!(
+            s.inclusion.iter().sum::<u64>(),
+            data.iter().map(|d| d.len() as u64).sum::<u64>()
+        );
         assert_eq!(mask_elements(&[0b101, 1]), vec![1, 3, 65]);
     }
 }

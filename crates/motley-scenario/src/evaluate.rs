@@ -121,10 +121,11 @@ fn same_law_sets(
                 ),
             );
             if let Ok(tv) = total_variation(&ca, &cb, alpha) {
-                let detect = detectable_total_variation(a.n, b.n, r.tested_cells.max(2), alpha, s.power)
-                    .ok()
-                    .flatten()
-                    .unwrap_or(1.0);
+                let detect =
+                    detectable_total_variation(a.n, b.n, r.tested_cells.max(2), alpha, s.power)
+                        .ok()
+                        .flatten()
+                        .unwrap_or(1.0);
                 effect = Some(Effect {
                     measure: "total variation".into(),
                     estimate: tv.estimate,
@@ -135,7 +136,8 @@ fn same_law_sets(
         }
         for (side, (c, n)) in [(&a.joint, a.n), (&b.joint, b.n)].into_iter().enumerate() {
             if let Some(c) = c {
-                est.top_outcomes.push(top_outcomes(c, n, 20, |m| show_set(&mask_elements(m))));
+                est.top_outcomes
+                    .push(top_outcomes(c, n, 20, |m| show_set(&mask_elements(m))));
             }
             let _ = side;
         }
@@ -156,10 +158,11 @@ fn same_law_sets(
     }
     if !p.is_empty() {
         let adj = holm_bonferroni(&p).unwrap_or_else(|_| p.clone());
-        let (i, min) = adj
-            .iter()
-            .enumerate()
-            .fold((0, 1.0f64), |acc, (i, &v)| if v < acc.1 { (i, v) } else { acc });
+        let (i, min) =
+            adj.iter().enumerate().fold(
+                (0, 1.0f64),
+                |acc, (i, &v)| if v < acc.1 { (i, v) } else { acc },
+            );
         fam.push(
             "per-element inclusion (two-proportion, Holm across elements)",
             worst.0,
@@ -174,10 +177,11 @@ fn same_law_sets(
         );
         if effect.is_none() {
             let pbar = 0.5;
-            let detect = detectable_probability_gap(a.n, b.n, pbar, alpha / universe as f64, s.power)
-                .ok()
-                .flatten()
-                .unwrap_or(1.0);
+            let detect =
+                detectable_probability_gap(a.n, b.n, pbar, alpha / universe as f64, s.power)
+                    .ok()
+                    .flatten()
+                    .unwrap_or(1.0);
             let z = normal_upper_quantile(alpha / (2.0 * universe as f64));
             let se = (0.25 / a.n as f64 + 0.25 / b.n as f64).sqrt();
             effect = Some(Effect {
@@ -210,7 +214,13 @@ fn same_law_sets(
             } else {
                 "integer data: KS is conservative here"
             };
-            fam.push(&format!("two-sample KS on the {name}"), r.statistic, None, r.p_value, note.into());
+            fam.push(
+                &format!("two-sample KS on the {name}"),
+                r.statistic,
+                None,
+                r.p_value,
+                note.into(),
+            );
         }
     }
     for (side, c) in [a, b].into_iter().enumerate() {
@@ -244,7 +254,13 @@ fn same_law_scalars(
         } else {
             String::new()
         };
-        fam.push("two-sample Kolmogorov–Smirnov", r.statistic, None, r.p_value, note);
+        fam.push(
+            "two-sample Kolmogorov–Smirnov",
+            r.statistic,
+            None,
+            r.p_value,
+            note,
+        );
     }
     if integer {
         let hist = |v: &[f64]| {
@@ -260,7 +276,10 @@ fn same_law_scalars(
                 r.statistic,
                 Some(r.dof as f64),
                 r.p_value,
-                format!("exact alternative to KS for integer data; {} rare values pooled", r.pooled_cells),
+                format!(
+                    "exact alternative to KS for integer data; {} rare values pooled",
+                    r.pooled_cells
+                ),
             );
         }
     }
@@ -306,10 +325,20 @@ fn dkw_pair(na: u64, nb: u64, alpha: f64) -> f64 {
 /// The reference CDF of a continuous reference law.
 pub fn reference_cdf(r: &ReferenceSpec) -> Option<Box<dyn Fn(f64) -> f64>> {
     match *r {
-        ReferenceSpec::Uniform(a, b) => Some(Box::new(move |x| ((x - a) / (b - a)).clamp(0.0, 1.0))),
-        ReferenceSpec::Normal(m, sd) => Some(Box::new(move |x| {
-            motley_stats::normal_sf(-(x - m) / sd)
-        })),
+        ReferenceSpec::Uniform(a, b) => {
+            Some(Box::new(move |x| ((x - a) / (b - a)).clamp(0.0, 1.0)))
+        }
+        ReferenceSpec::Normal(m, sd) => {
+            Some(Box::new(move |x| motley_stats::normal_sf(-(x - m) / sd)))
+        }
+        ReferenceSpec::TracyWidomGue => {
+            let tw = motley_reference::TracyWidom::gue();
+            Some(Box::new(move |x| tw.cdf(x)))
+        }
+        ReferenceSpec::TracyWidomGoe => {
+            let tw = motley_reference::TracyWidom::goe();
+            Some(Box::new(move |x| tw.cdf(x)))
+        }
         ReferenceSpec::TailFromProfile(_) => None,
     }
 }
@@ -319,6 +348,8 @@ fn reference_name(r: &ReferenceSpec) -> String {
         ReferenceSpec::Uniform(a, b) => format!("Uniform[{a}, {b}]"),
         ReferenceSpec::Normal(m, sd) => format!("Normal(mean {m}, sd {sd})"),
         ReferenceSpec::TailFromProfile(_) => "tail from the profile".into(),
+        ReferenceSpec::TracyWidomGue => "Tracy–Widom GUE".into(),
+        ReferenceSpec::TracyWidomGoe => "Tracy–Widom GOE".into(),
     }
 }
 
@@ -355,7 +386,10 @@ fn law_of_continuous(
             String::new()
         };
         fam.push(
-            &format!("one-sample Kolmogorov–Smirnov against {}", reference_name(r)),
+            &format!(
+                "one-sample Kolmogorov–Smirnov against {}",
+                reference_name(r)
+            ),
             res.statistic,
             None,
             res.p_value,
@@ -375,7 +409,8 @@ fn law_of_continuous(
         },
         estimate: res.statistic,
         upper_bound: (res.statistic + dkw(n, s.alpha)).min(1.0),
-        detectable: ((kolmogorov_quantile(s.alpha) + 0.5 * normal_upper_quantile(1.0 - s.power)) * scale)
+        detectable: ((kolmogorov_quantile(s.alpha) + 0.5 * normal_upper_quantile(1.0 - s.power))
+            * scale)
             .min(1.0),
     })
 }
@@ -417,8 +452,13 @@ fn tail_from_profile(
         );
     }
     let xs: Vec<f64> = sites.iter().map(|&v| v as f64).collect();
-    est.ecdf
-        .push(proportion_series(&format!("P({} ≥ x)", names[0]), xs.clone(), &tail, n_a, s.alpha));
+    est.ecdf.push(proportion_series(
+        &format!("P({} ≥ x)", names[0]),
+        xs.clone(),
+        &tail,
+        n_a,
+        s.alpha,
+    ));
     est.reference = Some(proportion_series(
         &format!("occupation of x in {}", names[1]),
         xs,
@@ -440,7 +480,10 @@ fn tail_from_profile(
     })
 }
 
-fn accs<'a>(slots: &'a [(crate::unit::Slot, Accumulator)], sl: &crate::unit::Slot) -> &'a Accumulator {
+fn accs<'a>(
+    slots: &'a [(crate::unit::Slot, Accumulator)],
+    sl: &crate::unit::Slot,
+) -> &'a Accumulator {
     &slots.iter().find(|(k, _)| k == sl).expect("planned slot").1
 }
 
@@ -475,26 +518,46 @@ pub fn evaluate(
                 effect = same_law_sets(s, labels, a, b, &mut fam, &mut est)
             }
             (Accumulator::Scalar(a), Accumulator::Scalar(b)) => {
-                let integer = matches!(s.observables[sl[0].observable].kind, crate::scenario::ValueKind::Scalar { integer: true })
-                    && matches!(s.observables[sl[1].observable].kind, crate::scenario::ValueKind::Scalar { integer: true });
-                effect = same_law_scalars(s, labels, &a.values, &b.values, integer, &mut fam, &mut est)
+                let integer = matches!(
+                    s.observables[sl[0].observable].kind,
+                    crate::scenario::ValueKind::Scalar { integer: true }
+                ) && matches!(
+                    s.observables[sl[1].observable].kind,
+                    crate::scenario::ValueKind::Scalar { integer: true }
+                );
+                effect =
+                    same_law_scalars(s, labels, &a.values, &b.values, integer, &mut fam, &mut est)
             }
             (Accumulator::Event(a), Accumulator::Event(b)) => {
                 let (p, _) = two_proportion_p_value(a.yes, a.n, b.yes, b.n);
                 let (pa, pb) = (a.yes as f64 / a.n as f64, b.yes as f64 / b.n as f64);
-                fam.push("two-proportion test", (pa - pb).abs(), None, p, String::new());
-                est.probabilities.push(interval(labels[0], a.yes, a.n, s.alpha));
-                est.probabilities.push(interval(labels[1], b.yes, b.n, s.alpha));
+                fam.push(
+                    "two-proportion test",
+                    (pa - pb).abs(),
+                    None,
+                    p,
+                    String::new(),
+                );
+                est.probabilities
+                    .push(interval(labels[0], a.yes, a.n, s.alpha));
+                est.probabilities
+                    .push(interval(labels[1], b.yes, b.n, s.alpha));
                 let z = normal_upper_quantile(s.alpha / 2.0);
                 let se = (pa * (1.0 - pa) / a.n as f64 + pb * (1.0 - pb) / b.n as f64).sqrt();
                 effect = Some(Effect {
                     measure: "probability gap".into(),
                     estimate: (pa - pb).abs(),
                     upper_bound: ((pa - pb).abs() + z * se).min(1.0),
-                    detectable: detectable_probability_gap(a.n, b.n, 0.5 * (pa + pb), s.alpha, s.power)
-                        .ok()
-                        .flatten()
-                        .unwrap_or(1.0),
+                    detectable: detectable_probability_gap(
+                        a.n,
+                        b.n,
+                        0.5 * (pa + pb),
+                        s.alpha,
+                        s.power,
+                    )
+                    .ok()
+                    .flatten()
+                    .unwrap_or(1.0),
                 });
             }
             (Accumulator::Sequence(a), Accumulator::Sequence(b)) => {
@@ -519,15 +582,23 @@ pub fn evaluate(
                             measure: "total variation".into(),
                             estimate: tv.estimate,
                             upper_bound: tv.upper_bound,
-                            detectable: detectable_total_variation(a.n, b.n, r.tested_cells.max(2), s.alpha, s.power)
-                                .ok()
-                                .flatten()
-                                .unwrap_or(1.0),
+                            detectable: detectable_total_variation(
+                                a.n,
+                                b.n,
+                                r.tested_cells.max(2),
+                                s.alpha,
+                                s.power,
+                            )
+                            .ok()
+                            .flatten()
+                            .unwrap_or(1.0),
                         });
                     }
                 }
-                est.top_outcomes.push(top_outcomes(&a.counts, a.n, 20, |k| show_sequence(k)));
-                est.top_outcomes.push(top_outcomes(&b.counts, b.n, 20, |k| show_sequence(k)));
+                est.top_outcomes
+                    .push(top_outcomes(&a.counts, a.n, 20, |k| show_sequence(k)));
+                est.top_outcomes
+                    .push(top_outcomes(&b.counts, b.n, 20, |k| show_sequence(k)));
             }
             _ => {}
         },
@@ -549,7 +620,8 @@ pub fn evaluate(
         }
         ClaimKind::Probability(_, equals) => {
             if let Accumulator::Event(e) = accs(slots, &sl[0]) {
-                est.probabilities.push(interval(labels[0], e.yes, e.n, s.alpha));
+                est.probabilities
+                    .push(interval(labels[0], e.yes, e.n, s.alpha));
                 if let Some(p0) = equals {
                     if let Ok(t) = motley_stats::binomial_test(e.yes, e.n, *p0) {
                         fam.push(
@@ -562,7 +634,8 @@ pub fn evaluate(
                     }
                     let ph = e.yes as f64 / e.n as f64;
                     let i = interval("", e.yes, e.n, s.alpha);
-                    let z = normal_upper_quantile(s.alpha / 2.0) + normal_upper_quantile(1.0 - s.power);
+                    let z =
+                        normal_upper_quantile(s.alpha / 2.0) + normal_upper_quantile(1.0 - s.power);
                     effect = Some(Effect {
                         measure: "probability gap to the stated value".into(),
                         estimate: (ph - p0).abs(),
@@ -575,25 +648,32 @@ pub fn evaluate(
         ClaimKind::Describe(_, reference, _) => match accs(slots, &sl[0]) {
             Accumulator::Scalar(x) => {
                 if let Some(r) = reference {
-                    effect = law_of_continuous(s, labels[0], &x.values, r, false, &mut fam, &mut est);
+                    effect =
+                        law_of_continuous(s, labels[0], &x.values, r, false, &mut fam, &mut est);
                 } else {
                     est.ecdf.push(ecdf_series(labels[0], &x.values, s.alpha));
                     est.moments.push(moments(labels[0], &x.values));
                 }
             }
-            Accumulator::Event(e) => est.probabilities.push(interval(labels[0], e.yes, e.n, s.alpha)),
+            Accumulator::Event(e) => est
+                .probabilities
+                .push(interval(labels[0], e.yes, e.n, s.alpha)),
             Accumulator::Set(a) => {
                 let x: Vec<f64> = (1..=a.universe).map(|k| k as f64).collect();
-                est.inclusion.push(proportion_series(labels[0], x, &a.inclusion, a.n, s.alpha));
+                est.inclusion
+                    .push(proportion_series(labels[0], x, &a.inclusion, a.n, s.alpha));
                 let sizes: Vec<f64> = a.summaries[0].keys().map(|&k| k as f64).collect();
                 let counts: Vec<u64> = a.summaries[0].values().copied().collect();
-                est.size_law.push(proportion_series(labels[0], sizes, &counts, a.n, s.alpha));
+                est.size_law
+                    .push(proportion_series(labels[0], sizes, &counts, a.n, s.alpha));
                 if let Some(j) = &a.joint {
-                    est.top_outcomes.push(top_outcomes(j, a.n, 20, |m| show_set(&mask_elements(m))));
+                    est.top_outcomes
+                        .push(top_outcomes(j, a.n, 20, |m| show_set(&mask_elements(m))));
                 }
             }
             Accumulator::Sequence(q) => {
-                est.top_outcomes.push(top_outcomes(&q.counts, q.n, 20, |k| show_sequence(k)))
+                est.top_outcomes
+                    .push(top_outcomes(&q.counts, q.n, 20, |k| show_sequence(k)))
             }
         },
     }
@@ -611,7 +691,9 @@ pub fn evaluate(
                 half_width: z * (ph * (1.0 - ph) / e.n as f64).sqrt(),
             })
         }
-        (ClaimKind::Describe(_, _, Some(limit)), Accumulator::Scalar(x)) if !x.values.is_empty() => {
+        (ClaimKind::Describe(_, _, Some(limit)), Accumulator::Scalar(x))
+            if !x.values.is_empty() =>
+        {
             let m = moments("", &x.values);
             Some(Stated {
                 role: "limit".into(),

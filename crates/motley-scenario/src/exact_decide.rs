@@ -56,7 +56,7 @@ fn six_vertex_key(s: &Scenario, o: &ObservableSpec, top: &[Color], right: &[Colo
         ReadSpec::Right(how) => set_elements(right, how, o.threshold, o.map, universe, m, &mut out),
         ReadSpec::ExitColumn(c) => {
             let col = top.iter().position(|&t| t == c).map_or(0, |p| p + 1);
-            return vec![encode(col as f64 * o.scale)];
+            return vec![encode((col as f64 + o.shift) * o.scale)];
         }
         _ => {}
     }
@@ -66,7 +66,12 @@ fn six_vertex_key(s: &Scenario, o: &ObservableSpec, top: &[Color], right: &[Colo
 fn exclusion_key(s: &Scenario, o: &ObservableSpec, initial: &[Color], now: &[Color]) -> Key {
     let m = &s.models[o.model];
     let thr = o.threshold.unwrap_or(1).max(1);
-    let above = |c: &[Color], x: i64| c.iter().skip(x.max(0) as usize).filter(|&&v| v >= thr).count() as f64;
+    let above = |c: &[Color], x: i64| {
+        c.iter()
+            .skip(x.max(0) as usize)
+            .filter(|&&v| v >= thr)
+            .count() as f64
+    };
     match o.read {
         ReadSpec::Window(from, to, _, how) => {
             let universe = match o.kind {
@@ -74,12 +79,20 @@ fn exclusion_key(s: &Scenario, o: &ObservableSpec, initial: &[Color], now: &[Col
                 _ => 0,
             };
             let mut out = Vec::new();
-            set_elements(&now[(from - 1) as usize..to as usize], how, o.threshold, o.map, universe, m, &mut out);
+            set_elements(
+                &now[(from - 1) as usize..to as usize],
+                how,
+                o.threshold,
+                o.map,
+                universe,
+                m,
+                &mut out,
+            );
             out.into_iter().map(|e| e as i64).collect()
         }
         ReadSpec::Position(c, _) => {
             let p = now.iter().position(|&v| v == c).map_or(0, |p| p + 1);
-            vec![encode(p as f64 * o.scale)]
+            vec![encode((p as f64 + o.shift) * o.scale)]
         }
         ReadSpec::Arrangement(_) => now.iter().map(|&c| i64::from(m.to_user(c))).collect(),
         ReadSpec::InverseArrangement(_) => {
@@ -92,8 +105,10 @@ fn exclusion_key(s: &Scenario, o: &ObservableSpec, initial: &[Color], now: &[Col
             }
             v
         }
-        ReadSpec::HeightExcl(x, _) => vec![encode(above(now, x) * o.scale)],
-        ReadSpec::Current(b, _) => vec![encode((above(now, b) - above(initial, b)) * o.scale)],
+        ReadSpec::HeightExcl(x, _) => vec![encode((above(now, x) + o.shift) * o.scale)],
+        ReadSpec::Current(b, _) => vec![encode(
+            (above(now, b) - above(initial, b) + o.shift) * o.scale,
+        )],
         ReadSpec::Swapped(a, b, _) => {
             let pos = |c: &[Color], k: Color| c.iter().position(|&v| v == k).unwrap_or(0);
             let before = pos(initial, a) < pos(initial, b);
@@ -143,7 +158,8 @@ fn observable_law(s: &Scenario, o: usize) -> Result<ObsLaw, String> {
     match &m.kind {
         ModelKind::SixVertex(sv) => {
             let model = crate::six_vertex_unit::build(sv)?;
-            let law = exact_law(sv.b1.value, sv.b2.value, model.boundary()).map_err(|e| e.to_string())?;
+            let law =
+                exact_law(sv.b1.value, sv.b2.value, model.boundary()).map_err(|e| e.to_string())?;
             let cells = collect(
                 law.entries()
                     .iter()
@@ -192,7 +208,9 @@ fn observable_law(s: &Scenario, o: usize) -> Result<ObsLaw, String> {
 fn describe_key(kind: ValueKind, k: &Key) -> String {
     match kind {
         ValueKind::Set { .. } => show_set(&k.iter().map(|&e| e as usize).collect::<Vec<_>>()),
-        ValueKind::Sequence { .. } => show_sequence(&k.iter().map(|&e| e as u32).collect::<Vec<_>>()),
+        ValueKind::Sequence { .. } => {
+            show_sequence(&k.iter().map(|&e| e as u32).collect::<Vec<_>>())
+        }
         ValueKind::Event => (if k.first() == Some(&1) { "yes" } else { "no" }).into(),
         ValueKind::Scalar { .. } => format!("{}", decode(k[0])),
     }
@@ -232,13 +250,27 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             let d = rational.unwrap_or_else(|| tv(&la.cells, &lb.cells));
             let ka = s.observables[*a].kind;
             est.top_outcomes.push(top(ka, &la.cells));
-            est.top_outcomes.push(top(s.observables[*b].kind, &lb.cells));
+            est.top_outcomes
+                .push(top(s.observables[*b].kind, &lb.cells));
             let n = la.cells.len().max(lb.cells.len());
-            ("same-law", vec![name(*a), name(*b)], Some(d), None, la.error + lb.error, n, rational.is_some())
+            (
+                "same-law",
+                vec![name(*a), name(*b)],
+                Some(d),
+                None,
+                la.error + lb.error,
+                n,
+                rational.is_some(),
+            )
         }
         ClaimKind::Probability(a, eq) => {
             let l = observable_law(s, *a)?;
-            let p: f64 = l.cells.iter().filter(|(k, _)| k.first() == Some(&1)).map(|(_, p)| p).sum();
+            let p: f64 = l
+                .cells
+                .iter()
+                .filter(|(k, _)| k.first() == Some(&1))
+                .map(|(_, p)| p)
+                .sum();
             est.probabilities.push(Interval {
                 label: name(*a),
                 successes: 0,
@@ -250,7 +282,15 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 exact_upper: p,
             });
             let d = eq.map(|v| (p - v).abs());
-            ("probability", vec![name(*a)], d, Some(p), l.error, l.cells.len(), false)
+            (
+                "probability",
+                vec![name(*a)],
+                d,
+                Some(p),
+                l.error,
+                l.cells.len(),
+                false,
+            )
         }
         ClaimKind::LawOf(a, ReferenceSpec::TailFromProfile(b)) => {
             let (lx, lp) = (observable_law(s, *a)?, observable_law(s, *b)?);
@@ -266,7 +306,11 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             let mut worst = 0.0f64;
             for k in 0..universe {
                 let site = from + k as i64;
-                let tail: f64 = xs.iter().filter(|(x, _)| *x >= site as f64).map(|(_, p)| p).sum();
+                let tail: f64 = xs
+                    .iter()
+                    .filter(|(x, _)| *x >= site as f64)
+                    .map(|(_, p)| p)
+                    .sum();
                 let occ: f64 = lp
                     .cells
                     .iter()
@@ -275,7 +319,15 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                     .sum();
                 worst = worst.max((tail - occ).abs());
             }
-            ("law-of", vec![name(*a), name(*b)], Some(worst), None, lx.error + lp.error, lx.cells.len(), false)
+            (
+                "law-of",
+                vec![name(*a), name(*b)],
+                Some(worst),
+                None,
+                lx.error + lp.error,
+                lx.cells.len(),
+                false,
+            )
         }
         ClaimKind::LawOf(a, r) => {
             let l = observable_law(s, *a)?;
@@ -287,7 +339,15 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 acc += p;
                 worst = worst.max((acc - f(x)).abs());
             }
-            ("law-of", vec![name(*a)], Some(worst), None, l.error, l.cells.len(), false)
+            (
+                "law-of",
+                vec![name(*a)],
+                Some(worst),
+                None,
+                l.error,
+                l.cells.len(),
+                false,
+            )
         }
         ClaimKind::Describe(a, _, _) => {
             let l = observable_law(s, *a)?;
@@ -305,7 +365,12 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 });
             }
             if kind == ValueKind::Event {
-                let p: f64 = l.cells.iter().filter(|(k, _)| k.first() == Some(&1)).map(|(_, p)| p).sum();
+                let p: f64 = l
+                    .cells
+                    .iter()
+                    .filter(|(k, _)| k.first() == Some(&1))
+                    .map(|(_, p)| p)
+                    .sum();
                 est.probabilities.push(Interval {
                     label: name(*a),
                     successes: 0,
@@ -317,7 +382,15 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                     exact_upper: p,
                 });
             }
-            ("describe", vec![name(*a)], None, None, l.error, l.cells.len(), false)
+            (
+                "describe",
+                vec![name(*a)],
+                None,
+                None,
+                l.error,
+                l.cells.len(),
+                false,
+            )
         }
     };
     let stated = match &c.kind {
@@ -337,7 +410,11 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }),
         _ => None,
     };
-    let tolerance = if rational { 0.0 } else { error + EXACT_TOLERANCE };
+    let tolerance = if rational {
+        0.0
+    } else {
+        error + EXACT_TOLERANCE
+    };
     let rejected = discrepancy.is_some_and(|d| d > tolerance);
     let verdict = match (kind, discrepancy) {
         ("describe", _) => "no claim: exact law shown".to_string(),

@@ -9,8 +9,7 @@ use motley_exclusion::{
 use crate::accumulate::Accumulator;
 use crate::read_set::set_elements;
 use crate::scenario::{
-    ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, ReadSpec,
-    ValueKind,
+    ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, ReadSpec, ValueKind,
 };
 
 /// The engine of an exclusion spec.
@@ -153,11 +152,19 @@ impl<'a> ExclusionUnit<'a> {
                         ValueKind::Set { universe } => universe,
                         _ => 0,
                     };
-                    set_elements(c, *how, o.threshold, o.map, universe, self.spec, &mut self.scratch);
+                    set_elements(
+                        c,
+                        *how,
+                        o.threshold,
+                        o.map,
+                        universe,
+                        self.spec,
+                        &mut self.scratch,
+                    );
                     acc.add_set(&self.scratch);
                 }
                 (ReadSpec::Position(..), Reading::Positions(p)) => {
-                    acc.add_scalar(p.first().copied().unwrap_or(0) as f64 * o.scale)
+                    acc.add_scalar((p.first().copied().unwrap_or(0) as f64 + o.shift) * o.scale)
                 }
                 (ReadSpec::Arrangement(_), Reading::Colors(c)) => {
                     self.seq.clear();
@@ -176,7 +183,7 @@ impl<'a> ExclusionUnit<'a> {
                     acc.add_sequence(&self.seq);
                 }
                 (ReadSpec::Current(..) | ReadSpec::HeightExcl(..), Reading::Count(v)) => {
-                    acc.add_scalar(*v as f64 * o.scale)
+                    acc.add_scalar((*v as f64 + o.shift) * o.scale)
                 }
                 (ReadSpec::Swapped(..), Reading::Flag(f)) => acc.add_event(*f),
                 (ReadSpec::Attempted(..), Reading::Flag(f)) => {
@@ -188,4 +195,3 @@ impl<'a> ExclusionUnit<'a> {
         }
     }
 }
-

@@ -19,7 +19,10 @@ pub enum MergeError {
         found: String,
     },
     /// Written by another motley version.
-    #[error("{file}: written by motley {found}, this is motley {}; rerun the shard with this version", crate::VERSION)]
+    #[error(
+        "{file}: written by motley {found}, this is motley {}; rerun the shard with this version",
+        crate::VERSION
+    )]
     Version {
         /// Where it came from.
         file: String,
@@ -39,7 +42,9 @@ pub enum MergeError {
         expected: String,
     },
     /// Shard counts disagree.
-    #[error("{file}: is shard {index}/{count}, but other shards say the run has {expected} shards")]
+    #[error(
+        "{file}: is shard {index}/{count}, but other shards say the run has {expected} shards"
+    )]
     ShardCount {
         /// Where it came from.
         file: String,

@@ -31,6 +31,9 @@
 //! assert!(e.first_line().contains("`models.rect.six-vertex.b1`: must be a probability in [0, 1], got 1.5"));
 //! ```
 #![deny(missing_docs)]
+// A `ScenarioError` carries the file, position, key path, message and hint by value; it is built
+// once, on the cold path of a refused scenario, so boxing it would only add noise.
+#![allow(clippy::result_large_err)]
 
 pub mod accumulate;
 pub mod cost;

@@ -99,7 +99,12 @@ fn hex(bytes: &[u8]) -> String {
 
 /// Turns a serde_yaml error into a located [`ScenarioError`], with "did you mean" for unknown keys
 /// and variants, and serde's type names ("i64", "enum RawRead") replaced by what the file may hold.
-fn serde_error(e: serde_yaml::Error, file: &str, text: &str, locations: &Locations) -> ScenarioError {
+fn serde_error(
+    e: serde_yaml::Error,
+    file: &str,
+    text: &str,
+    locations: &Locations,
+) -> ScenarioError {
     let full = e.to_string();
     // serde_yaml writes "PATH: MESSAGE at line L column C"; strip the position (kept separately).
     let body = match full.rfind(" at line ") {
@@ -120,14 +125,20 @@ fn serde_error(e: serde_yaml::Error, file: &str, text: &str, locations: &Locatio
         format!("not valid YAML: {message}")
     } else if message.starts_with("control characters are not allowed") {
         format!("not valid YAML (is it a text file?): {message}")
-    } else if path.is_empty() && message.starts_with("invalid type") && message.ends_with("expected struct RawScenario") {
+    } else if path.is_empty()
+        && message.starts_with("invalid type")
+        && message.ends_with("expected struct RawScenario")
+    {
         let found = message
             .strip_prefix("invalid type: ")
             .and_then(|m| m.split_once(", expected"))
             .map(|(f, _)| found_name(f))
             .unwrap_or_default();
         format!("not a scenario: the file holds {found}, not a mapping of keys (`name: …`, `seed: …`, …)")
-    } else if let Some(key) = message.strip_prefix("missing field `").and_then(|r| r.strip_suffix('`')) {
+    } else if let Some(key) = message
+        .strip_prefix("missing field `")
+        .and_then(|r| r.strip_suffix('`'))
+    {
         format!("missing key `{key}`")
     } else if let Some((rule, keys)) = untagged(&message) {
         // serde names the enclosing mapping only; find the offending key from the values.
@@ -145,7 +156,10 @@ fn serde_error(e: serde_yaml::Error, file: &str, text: &str, locations: &Locatio
                 }
             }
             None if rule == "color" => "`color` must be a color number or `rainbow`".to_string(),
-            None => format!("{} must be numbers or fractions like \"1/3\"", keys.join(", ")),
+            None => format!(
+                "{} must be numbers or fractions like \"1/3\"",
+                keys.join(", ")
+            ),
         }
     } else if let Some(rest) = message
         .strip_prefix("invalid type: ")
@@ -153,7 +167,11 @@ fn serde_error(e: serde_yaml::Error, file: &str, text: &str, locations: &Locatio
     {
         match rest.split_once(", expected ") {
             Some((found, expected)) => {
-                format!("expected {}, got {}", expected_name(expected), found_name(found))
+                format!(
+                    "expected {}, got {}",
+                    expected_name(expected),
+                    found_name(found)
+                )
             }
             None => message,
         }
@@ -192,12 +210,16 @@ fn expected_name(expected: &str) -> String {
         "an array of length 2" => "a list of two entries",
         "enum RawRead" => "a read-out such as `{top: colors}` or `{height: {x: 1, y: 2}}`",
         "enum RawSetKind" => "`colors` or `positions`",
-        "enum RawBoundary" => "`rainbow`, `empty`, `{step: c}`, `{list: […]}`, `{blocks: {…}}` or `{bernoulli: {…}}`",
+        "enum RawBoundary" => {
+            "`rainbow`, `empty`, `{step: c}`, `{list: […]}`, `{blocks: {…}}` or `{bernoulli: {…}}`"
+        }
         "enum RawModel" => "`six-vertex: {…}` or `exclusion: {…}`",
         "enum RawLattice" => "`{segment: n}`, `{ring: n}` or `line`",
         "enum RawInitial" => "`packed`, `{list: […]}` or `{step: {…}}`",
         "enum RawIndexMap" => "`identity`, `reflection` or `{shift: s}`",
-        "enum RawReference" => "`{uniform: [a, b]}`, `{normal: {mean: m, sd: s}}` or `{tail-from-profile: NAME}`",
+        "enum RawReference" => {
+            "`{uniform: [a, b]}`, `{normal: {mean: m, sd: s}}` or `{tail-from-profile: NAME}`"
+        }
         "enum RawExactMode" => "`auto`, `on` or `off`",
         "enum RawStrength" => "`larger-wins` or `smaller-wins`",
         e if e.starts_with("struct Raw") => "a mapping of keys",
@@ -223,7 +245,12 @@ fn untagged(message: &str) -> Option<(&'static str, &'static [&'static str])> {
 
 /// The first of `keys` under `path` whose value is neither a number nor a string (nor, for
 /// `integer`, a non-integer number), with a description of that value.
-fn untagged_culprit(text: &str, path: &str, keys: &[&str], integer: bool) -> Option<(String, String)> {
+fn untagged_culprit(
+    text: &str,
+    path: &str,
+    keys: &[&str],
+    integer: bool,
+) -> Option<(String, String)> {
     use serde_yaml::Value;
     let mut v: Value = serde_yaml::from_str(text).ok()?;
     for seg in path.split('.').filter(|s| !s.is_empty()) {

@@ -55,7 +55,10 @@ pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
             let n = match e.lattice {
                 LatticeSpec::Segment(n) | LatticeSpec::Ring(n) => n,
                 LatticeSpec::Line => {
-                    return Some(format!("model `{}` lives on the line; exact laws need a segment or a ring", m.name))
+                    return Some(format!(
+                        "model `{}` lives on the line; exact laws need a segment or a ring",
+                        m.name
+                    ))
                 }
             };
             if n > EXACT_EXCLUSION_SITES {

@@ -224,9 +224,12 @@ pub struct RawObservable {
     /// Index map applied to a set: `identity`, `reflection` or `{shift: s}`.
     #[serde(default)]
     pub map: Option<RawIndexMap>,
-    /// Multiply a scalar by this factor.
+    /// Multiply a scalar by this factor (after adding `shift`).
     #[serde(default)]
     pub scale: Option<f64>,
+    /// Add this to a scalar before scaling: the value becomes `(value + shift) × scale`.
+    #[serde(default)]
+    pub shift: Option<f64>,
 }
 
 /// `map:` values.
@@ -425,6 +428,22 @@ pub enum RawReference {
     /// The integer law with tail `P(X ≥ x) = E[occupation of site x]` read from another observable
     /// (an exclusion `window` read as positions).
     TailFromProfile(String),
+    /// The Tracy–Widom GUE law F₂.
+    TracyWidomGue,
+    /// The Tracy–Widom GOE law F₁.
+    TracyWidomGoe,
+    /// Uniform on `[−(p − q), p − q]`: the limiting speed of a second-class particle from step data.
+    SecondClassSpeed(RawRates),
+}
+
+/// `second-class-speed:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawRates {
+    /// Right rate.
+    pub p: f64,
+    /// Left rate.
+    pub q: f64,
 }
 
 /// `normal:` keys.

@@ -46,7 +46,10 @@ pub(crate) fn observable(
         };
         ck.error(
             &rp,
-            format!("`{what}` is not a read-out of a {} model (its read-outs: {allowed})", m.kind.name()),
+            format!(
+                "`{what}` is not a read-out of a {} model (its read-outs: {allowed})",
+                m.kind.name()
+            ),
         )
     };
     let set_kind = |k: SetRead, positions: usize| match k {
@@ -73,16 +76,23 @@ pub(crate) fn observable(
         (ModelKind::SixVertex(s), RawRead::Top(k)) => {
             (ReadSpec::Top(set_read(*k)), set_kind(set_read(*k), s.width))
         }
-        (ModelKind::SixVertex(s), RawRead::Right(k)) => {
-            (ReadSpec::Right(set_read(*k)), set_kind(set_read(*k), s.height))
-        }
+        (ModelKind::SixVertex(s), RawRead::Right(k)) => (
+            ReadSpec::Right(set_read(*k)),
+            set_kind(set_read(*k), s.height),
+        ),
         (ModelKind::SixVertex(s), RawRead::Row(r)) => {
             let y = ck.int_in(&format!("{rp}.row.y"), r.y, 0, s.height as i64)? as usize;
-            (ReadSpec::Row(y, set_read(r.kind)), set_kind(set_read(r.kind), s.width))
+            (
+                ReadSpec::Row(y, set_read(r.kind)),
+                set_kind(set_read(r.kind), s.width),
+            )
         }
         (ModelKind::SixVertex(s), RawRead::Column(c)) => {
             let x = ck.int_in(&format!("{rp}.column.x"), c.x, 0, s.width as i64)? as usize;
-            (ReadSpec::Column(x, set_read(c.kind)), set_kind(set_read(c.kind), s.height))
+            (
+                ReadSpec::Column(x, set_read(c.kind)),
+                set_kind(set_read(c.kind), s.height),
+            )
         }
         (ModelKind::SixVertex(s), RawRead::Height(h)) => {
             let x = ck.int_in(&format!("{rp}.height.x"), h.x, 0, s.width as i64)? as usize;
@@ -91,13 +101,17 @@ pub(crate) fn observable(
             };
             let y = ck.int_in(&format!("{rp}.height.y"), y, 0, s.height as i64)? as usize;
             if h.time.is_some() {
-                return Err(ck.error(&format!("{rp}.height.time"), "a six-vertex height has no `time` (rows play its part)"));
+                return Err(ck.error(
+                    &format!("{rp}.height.time"),
+                    "a six-vertex height has no `time` (rows play its part)",
+                ));
             }
             (ReadSpec::Height6v(x, y), int)
         }
-        (ModelKind::SixVertex(_), RawRead::ExitColumn(c)) => {
-            (ReadSpec::ExitColumn(class(&format!("{rp}.exit-column"), *c)?), int)
-        }
+        (ModelKind::SixVertex(_), RawRead::ExitColumn(c)) => (
+            ReadSpec::ExitColumn(class(&format!("{rp}.exit-column"), *c)?),
+            int,
+        ),
         (ModelKind::SixVertex(_), r) => return Err(wrong_model(read_name(r))),
         (ModelKind::Exclusion(e), r) => {
             let n = match e.lattice {
@@ -130,7 +144,10 @@ pub(crate) fn observable(
                 RawRead::Window(w) => {
                     let p = format!("{rp}.window");
                     if w.from > w.to {
-                        return Err(ck.error(&format!("{p}.to"), format!("must be ≥ `from` ({}), got {}", w.from, w.to)));
+                        return Err(ck.error(
+                            &format!("{p}.to"),
+                            format!("must be ≥ `from` ({}), got {}", w.from, w.to),
+                        ));
                     }
                     match n {
                         Some(n) => {
@@ -141,7 +158,10 @@ pub(crate) fn observable(
                             ck.int_in(&format!("{p}.from"), w.from, -MAX_SIDE, MAX_SIDE)?;
                             ck.int_in(&format!("{p}.to"), w.to, -MAX_SIDE, MAX_SIDE)?;
                             if w.to - w.from >= 1 << 16 {
-                                return Err(ck.error(&format!("{p}.to"), "a window holds at most 65536 sites"));
+                                return Err(ck.error(
+                                    &format!("{p}.to"),
+                                    "a window holds at most 65536 sites",
+                                ));
                             }
                         }
                     }
@@ -189,7 +209,10 @@ pub(crate) fn observable(
                 RawRead::Height(h) => {
                     let p = format!("{rp}.height");
                     if h.y.is_some() {
-                        return Err(ck.error(&format!("{p}.y"), "an exclusion height has no `y`; give `time`"));
+                        return Err(ck.error(
+                            &format!("{p}.y"),
+                            "an exclusion height has no `y`; give `time`",
+                        ));
                     }
                     let Some(t) = h.time else {
                         return Err(ck.error(&p, "an exclusion height needs `time`"));
@@ -249,7 +272,13 @@ pub(crate) fn observable(
     };
     if o.map.is_some() {
         let ValueKind::Set { universe } = kind else {
-            return Err(ck.error(&format!("{path}.map"), format!("an index map applies to sets, but this observable is {}", kind.describe())));
+            return Err(ck.error(
+                &format!("{path}.map"),
+                format!(
+                    "an index map applies to sets, but this observable is {}",
+                    kind.describe()
+                ),
+            ));
         };
         if let SetMap::Shift(s) = map {
             // Checked here, with the shifted range in the message, and before `map_fits`, whose
@@ -271,14 +300,47 @@ pub(crate) fn observable(
         }
     }
     let mut kind = kind;
+    let shift = match o.shift {
+        None => 0.0,
+        Some(v) => {
+            if !matches!(kind, ValueKind::Scalar { .. }) {
+                return Err(ck.error(
+                    &format!("{path}.shift"),
+                    format!(
+                        "a shift applies to numbers, but this observable is {}",
+                        kind.describe()
+                    ),
+                ));
+            }
+            if !v.is_finite() {
+                return Err(ck.error(
+                    &format!("{path}.shift"),
+                    format!("must be a finite number, got {v}"),
+                ));
+            }
+            if v.fract() != 0.0 {
+                kind = ValueKind::Scalar { integer: false };
+            }
+            v
+        }
+    };
     let scale = match o.scale {
         None => 1.0,
         Some(s) => {
             if !matches!(kind, ValueKind::Scalar { .. }) {
-                return Err(ck.error(&format!("{path}.scale"), format!("a scale applies to numbers, but this observable is {}", kind.describe())));
+                return Err(ck.error(
+                    &format!("{path}.scale"),
+                    format!(
+                        "a scale applies to numbers, but this observable is {}",
+                        kind.describe()
+                    ),
+                ));
             }
             if !s.is_finite() || s == 0.0 {
-                return Err(ck.error(&format!("{path}.scale"), format!("must be a finite nonzero number, got {s}")));
+                return Err(ck.error(
+                    &format!("{path}.scale"),
+                    format!("must be a finite nonzero number, got {s}"),
+                ));
             }
             if s != 1.0 {
                 kind = ValueKind::Scalar { integer: false };
@@ -293,6 +355,7 @@ pub(crate) fn observable(
         threshold,
         map,
         scale,
+        shift,
         kind,
     })
 }

@@ -113,7 +113,8 @@ pub enum RunError {
     Threads(usize),
 }
 
-/// Per-unit sampler state.
+/// Per-unit sampler state (one per unit per chunk, so the size difference is immaterial).
+#[allow(clippy::large_enum_variant)]
 enum Sampler<'a> {
     SixVertex(crate::six_vertex_unit::SixVertexUnit<'a>),
     Exclusion(crate::exclusion_unit::ExclusionUnit<'a>),
@@ -130,20 +131,15 @@ fn sampler<'a>(s: &'a Scenario, u: &Unit) -> Result<Sampler<'a>, RunError> {
         ModelKind::SixVertex(sv) => Sampler::SixVertex(
             crate::six_vertex_unit::SixVertexUnit::new(m, sv, obs, false).map_err(err)?,
         ),
-        ModelKind::Exclusion(ex) => Sampler::Exclusion(
-            crate::exclusion_unit::ExclusionUnit::new(m, ex, obs).map_err(err)?,
-        ),
+        ModelKind::Exclusion(ex) => {
+            Sampler::Exclusion(crate::exclusion_unit::ExclusionUnit::new(m, ex, obs).map_err(err)?)
+        }
     })
 }
 
 /// Runs sample indices `[from, to)` of every unit of `plan` and returns the accumulators, in the
 /// order of `plan.slots`.
-fn run_range(
-    s: &Scenario,
-    plan: &Plan,
-    from: u64,
-    to: u64,
-) -> Result<Vec<Accumulator>, RunError> {
+fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumulator>, RunError> {
     let mut out: Vec<Accumulator> = plan
         .slots
         .iter()

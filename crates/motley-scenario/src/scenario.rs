@@ -272,8 +272,10 @@ pub struct ObservableSpec {
     pub threshold: Option<Color>,
     /// Index map applied to sets.
     pub map: IndexMap,
-    /// Factor applied to scalars.
+    /// Factor applied to scalars (after the shift).
     pub scale: f64,
+    /// Added to scalars before the factor.
+    pub shift: f64,
     /// Kind of value.
     pub kind: ValueKind,
 }
@@ -287,6 +289,10 @@ pub enum ReferenceSpec {
     Normal(f64, f64),
     /// Tail read from a profile observable: `P(X ≥ x) = E[1{x occupied}]`.
     TailFromProfile(usize),
+    /// Tracy–Widom GUE (F₂).
+    TracyWidomGue,
+    /// Tracy–Widom GOE (F₁).
+    TracyWidomGoe,
 }
 
 /// What a claim says.

@@ -21,7 +21,10 @@ pub(crate) fn side(b: &BoundarySpec) -> Result<Side, String> {
             } else if colors.iter().enumerate().all(|(k, &c)| c as usize == k + 1) {
                 ColorRule::Index { offset: 0 }
             } else {
-                return Err("a random rainbow boundary is only available with `strength: larger-wins`".into());
+                return Err(
+                    "a random rainbow boundary is only available with `strength: larger-wins`"
+                        .into(),
+                );
             };
             Side::Bernoulli {
                 density: *density,
@@ -33,8 +36,13 @@ pub(crate) fn side(b: &BoundarySpec) -> Result<Side, String> {
 
 /// The engine for `spec`.
 pub(crate) fn build(spec: &SixVertexSpec) -> Result<Model, String> {
-    let boundary = Boundary::new(spec.width, spec.height, side(&spec.left)?, side(&spec.bottom)?)
-        .map_err(|e: SixVertexError| e.to_string())?;
+    let boundary = Boundary::new(
+        spec.width,
+        spec.height,
+        side(&spec.left)?,
+        side(&spec.bottom)?,
+    )
+    .map_err(|e: SixVertexError| e.to_string())?;
     Model::new(spec.b1.value, spec.b2.value, boundary).map_err(|e| e.to_string())
 }
 
@@ -101,7 +109,15 @@ impl<'a> SixVertexUnit<'a> {
                 _ => 0,
             };
             let mut set = |colors: &[Color], how, scratch: &mut Vec<usize>| {
-                set_elements(colors, how, o.threshold, o.map, universe, self.spec, scratch);
+                set_elements(
+                    colors,
+                    how,
+                    o.threshold,
+                    o.map,
+                    universe,
+                    self.spec,
+                    scratch,
+                );
                 acc.add_set(scratch);
             };
             match o.read {
@@ -117,11 +133,16 @@ impl<'a> SixVertexUnit<'a> {
                 }
                 ReadSpec::Height6v(..) => {
                     let h = self.height_slot[k].map_or(0, |s| self.readout.heights()[s]);
-                    acc.add_scalar(h as f64 * o.scale);
+                    acc.add_scalar((h as f64 + o.shift) * o.scale);
                 }
                 ReadSpec::ExitColumn(c) => {
-                    let col = self.readout.top().iter().position(|&t| t == c).map_or(0, |p| p + 1);
-                    acc.add_scalar(col as f64 * o.scale);
+                    let col = self
+                        .readout
+                        .top()
+                        .iter()
+                        .position(|&t| t == c)
+                        .map_or(0, |p| p + 1);
+                    acc.add_scalar((col as f64 + o.shift) * o.scale);
                 }
                 _ => {}
             }

@@ -39,7 +39,9 @@ pub fn unit_seed(seed: u64, name: &str, replica: u32) -> u64 {
 }
 
 /// Observable `o` on replica `r`: an accumulator slot.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, serde::Serialize, serde::Deserialize)]
+#[derive(
+    Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, serde::Serialize, serde::Deserialize,
+)]
 pub struct Slot {
     /// Observable index.
     pub observable: usize,

@@ -37,13 +37,24 @@ impl Checker<'_> {
         }
     }
 
-    fn error_hint(&self, path: &str, message: impl Into<String>, hint: Option<String>) -> ScenarioError {
+    fn error_hint(
+        &self,
+        path: &str,
+        message: impl Into<String>,
+        hint: Option<String>,
+    ) -> ScenarioError {
         let mut e = self.error(path, message);
         e.hint = hint;
         e
     }
 
-    pub(crate) fn int_in(&self, path: &str, v: i64, lo: i64, hi: i64) -> Result<i64, ScenarioError> {
+    pub(crate) fn int_in(
+        &self,
+        path: &str,
+        v: i64,
+        lo: i64,
+        hi: i64,
+    ) -> Result<i64, ScenarioError> {
         if v < lo || v > hi {
             return Err(self.error(path, format!("must be an integer in [{lo}, {hi}], got {v}")));
         }
@@ -60,7 +71,10 @@ impl Checker<'_> {
     fn probability(&self, path: &str, n: &RawNumber) -> Result<Number, ScenarioError> {
         let n = self.number(path, n)?;
         if !(0.0..=1.0).contains(&n.value) {
-            return Err(self.error(path, format!("must be a probability in [0, 1], got {}", n.value)));
+            return Err(self.error(
+                path,
+                format!("must be a probability in [0, 1], got {}", n.value),
+            ));
         }
         Ok(n)
     }
@@ -115,7 +129,8 @@ impl Checker<'_> {
     fn name(&self, path: &str, n: &str) -> Result<(), ScenarioError> {
         let ok = !n.is_empty()
             && n.len() <= 64
-            && n.chars().all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_');
+            && n.chars()
+                .all(|c| c.is_ascii_alphanumeric() || c == '-' || c == '_');
         if !ok {
             return Err(self.error(
                 path,
@@ -155,7 +170,10 @@ pub fn validate(
     let ck = Checker { file, locations };
     ck.name("name", &raw.name)?;
     if raw.samples == 0 || raw.samples > 1u64 << 40 {
-        return Err(ck.error("samples", format!("must be an integer in [1, 2^40], got {}", raw.samples)));
+        return Err(ck.error(
+            "samples",
+            format!("must be an integer in [1, 2^40], got {}", raw.samples),
+        ));
     }
     let alpha = raw.alpha.unwrap_or(0.01);
     if !(alpha.is_finite() && alpha > 0.0 && alpha < 0.5) {
@@ -196,7 +214,14 @@ pub fn validate(
         let Some(mi) = raw.models.get_index_of(&o.of) else {
             return Err(ck.unknown_name(&format!("{path}.of"), "model", &o.of, &model_names));
         };
-        observables.push(crate::resolve_read::observable(&ck, &path, name, mi, &models[mi], o)?);
+        observables.push(crate::resolve_read::observable(
+            &ck,
+            &path,
+            name,
+            mi,
+            &models[mi],
+            o,
+        )?);
     }
     let obs_names: Vec<&str> = raw.observables.keys().map(|s| s.as_str()).collect();
 
@@ -214,7 +239,10 @@ pub fn validate(
         claims.push(claim(&ck, &path, c, &observables, &obs_names, exact)?);
     }
     if claims.is_empty() {
-        return Err(ck.error("claims", "at least one claim is needed (use `describe:` for no claim)"));
+        return Err(ck.error(
+            "claims",
+            "at least one claim is needed (use `describe:` for no claim)",
+        ));
     }
 
     Ok(Scenario {
@@ -302,7 +330,11 @@ fn model(
     };
     let relabel = match strength {
         Some(RawStrength::SmallerWins) => {
-            let k = model_numbers(m).into_iter().max().unwrap_or(0).clamp(1, MAX_COLOR);
+            let k = model_numbers(m)
+                .into_iter()
+                .max()
+                .unwrap_or(0)
+                .clamp(1, MAX_COLOR);
             Some(Relabel::reverse(k as u32).expect("k ≥ 1"))
         }
         _ => None,
@@ -338,18 +370,26 @@ fn model(
         RawModel::Exclusion(e) => {
             let p = format!("{path}.exclusion");
             let lattice = match e.lattice {
-                RawLattice::Segment(n) => {
-                    LatticeSpec::Segment(ck.int_in(&format!("{p}.lattice.segment"), n, 2, MAX_SIDE)? as usize)
-                }
+                RawLattice::Segment(n) => LatticeSpec::Segment(ck.int_in(
+                    &format!("{p}.lattice.segment"),
+                    n,
+                    2,
+                    MAX_SIDE,
+                )? as usize),
                 RawLattice::Ring(n) => {
-                    LatticeSpec::Ring(ck.int_in(&format!("{p}.lattice.ring"), n, 2, MAX_SIDE)? as usize)
+                    LatticeSpec::Ring(
+                        ck.int_in(&format!("{p}.lattice.ring"), n, 2, MAX_SIDE)? as usize
+                    )
                 }
                 RawLattice::Line => LatticeSpec::Line,
             };
             let pr = ck.rate(&format!("{p}.p"), &e.p)?;
             let qr = ck.rate(&format!("{p}.q"), &e.q)?;
             if pr.value + qr.value <= 0.0 {
-                return Err(ck.error(&format!("{p}.q"), "p and q cannot both be 0: nothing would move"));
+                return Err(ck.error(
+                    &format!("{p}.q"),
+                    "p and q cannot both be 0: nothing would move",
+                ));
             }
             let ip = format!("{p}.initial");
             let initial = match (&e.initial, lattice) {
@@ -433,7 +473,12 @@ fn model(
             InitialSpec::Sites(s) => s.iter().copied().max().unwrap_or(0),
             InitialSpec::Line {
                 left, right, block, ..
-            } => block.iter().copied().chain([*left, *right]).max().unwrap_or(0),
+            } => block
+                .iter()
+                .copied()
+                .chain([*left, *right])
+                .max()
+                .unwrap_or(0),
         },
     };
     Ok(ModelSpec {
@@ -484,13 +529,19 @@ fn boundary(
             let p = format!("{path}.bernoulli");
             let d = ck.finite(&format!("{p}.density"), be.density)?;
             if !(0.0..=1.0).contains(&d) {
-                return Err(ck.error(&format!("{p}.density"), format!("must be a probability in [0, 1], got {d}")));
+                return Err(ck.error(
+                    &format!("{p}.density"),
+                    format!("must be a probability in [0, 1], got {d}"),
+                ));
             }
             let colors = match &be.color {
                 RawColorRule::Fixed(c) => {
                     let c = color(&format!("{p}.color"), *c)?;
                     if c == 0 {
-                        return Err(ck.error(&format!("{p}.color"), "an occupied edge needs a color ≥ 1, got 0"));
+                        return Err(ck.error(
+                            &format!("{p}.color"),
+                            "an occupied edge needs a color ≥ 1, got 0",
+                        ));
                     }
                     vec![c; len]
                 }
@@ -557,7 +608,10 @@ fn claim(
             ));
         }
         if ia == ib {
-            return Err(ck.error(&format!("{path}.same-law"), format!("compares \"{a}\" with itself")));
+            return Err(ck.error(
+                &format!("{path}.same-law"),
+                format!("compares \"{a}\" with itself"),
+            ));
         }
         ClaimKind::SameLaw(ia, ib)
     } else if let Some(l) = &c.law_of {
@@ -566,7 +620,11 @@ fn claim(
         if !matches!(obs[i].kind, ValueKind::Scalar { .. }) {
             return Err(ck.error(
                 &format!("{p}.observable"),
-                format!("`law-of` needs a number, but \"{}\" is {}", l.observable, obs[i].kind.describe()),
+                format!(
+                    "`law-of` needs a number, but \"{}\" is {}",
+                    l.observable,
+                    obs[i].kind.describe()
+                ),
             ));
         }
         let reference = reference(ck, &format!("{p}.reference"), &l.reference, i, obs, &find)?;
@@ -577,12 +635,19 @@ fn claim(
         if obs[i].kind != ValueKind::Event {
             return Err(ck.error(
                 &format!("{p}.event"),
-                format!("`probability` needs an event, but \"{}\" is {}", pr.event, obs[i].kind.describe()),
+                format!(
+                    "`probability` needs an event, but \"{}\" is {}",
+                    pr.event,
+                    obs[i].kind.describe()
+                ),
             ));
         }
         if let Some(v) = pr.equals {
             if !(v.is_finite() && (0.0..=1.0).contains(&v)) {
-                return Err(ck.error(&format!("{p}.equals"), format!("must be a probability in [0, 1], got {v}")));
+                return Err(ck.error(
+                    &format!("{p}.equals"),
+                    format!("must be a probability in [0, 1], got {v}"),
+                ));
             }
         }
         ClaimKind::Probability(i, pr.equals)
@@ -591,15 +656,29 @@ fn claim(
         let i = find(&format!("{path}.describe"), name)?;
         let scalar = matches!(obs[i].kind, ValueKind::Scalar { .. });
         if (c.reference.is_some() || c.limit.is_some()) && !scalar {
-            let key = if c.reference.is_some() { "reference" } else { "limit" };
+            let key = if c.reference.is_some() {
+                "reference"
+            } else {
+                "limit"
+            };
             return Err(ck.error(
                 &format!("{path}.{key}"),
-                format!("`{key}` goes with `describe` of a number, but \"{name}\" is {}", obs[i].kind.describe()),
+                format!(
+                    "`{key}` goes with `describe` of a number, but \"{name}\" is {}",
+                    obs[i].kind.describe()
+                ),
             ));
         }
         let reference = match &c.reference {
             None => None,
-            Some(r) => Some(reference(ck, &format!("{path}.reference"), r, i, obs, &find)?),
+            Some(r) => Some(reference(
+                ck,
+                &format!("{path}.reference"),
+                r,
+                i,
+                obs,
+                &find,
+            )?),
         };
         if let Some(l) = c.limit {
             ck.finite(&format!("{path}.limit"), l)?;
@@ -608,10 +687,16 @@ fn claim(
     };
     if !matches!(kind, ClaimKind::Describe(..)) {
         if c.reference.is_some() {
-            return Err(ck.error(&format!("{path}.reference"), "`reference` at claim level goes with `describe`; `law-of` has its own"));
+            return Err(ck.error(
+                &format!("{path}.reference"),
+                "`reference` at claim level goes with `describe`; `law-of` has its own",
+            ));
         }
         if c.limit.is_some() {
-            return Err(ck.error(&format!("{path}.limit"), "`limit` goes with `describe` only"));
+            return Err(ck.error(
+                &format!("{path}.limit"),
+                "`limit` goes with `describe` only",
+            ));
         }
     }
     Ok(ClaimSpec {
@@ -636,39 +721,58 @@ fn reference(
     find: &dyn Fn(&str, &str) -> Result<usize, ScenarioError>,
 ) -> Result<ReferenceSpec, ScenarioError> {
     let p = rp.trim_end_matches(".reference");
-        let r = match raw {
-            RawReference::Uniform([a, b]) => {
-                let (a, b) = (ck.finite(&rp, *a)?, ck.finite(&rp, *b)?);
-                if a >= b {
-                    return Err(ck.error(&format!("{rp}.uniform"), format!("needs a < b, got [{a}, {b}]")));
-                }
-                ReferenceSpec::Uniform(a, b)
+    let r = match raw {
+        RawReference::Uniform([a, b]) => {
+            let (a, b) = (ck.finite(rp, *a)?, ck.finite(rp, *b)?);
+            if a >= b {
+                return Err(ck.error(
+                    &format!("{rp}.uniform"),
+                    format!("needs a < b, got [{a}, {b}]"),
+                ));
             }
-            RawReference::Normal(n) => {
-                let m = ck.finite(&format!("{rp}.normal.mean"), n.mean)?;
-                let s = ck.finite(&format!("{rp}.normal.sd"), n.sd)?;
-                if s <= 0.0 {
-                    return Err(ck.error(&format!("{rp}.normal.sd"), format!("must be > 0, got {s}")));
-                }
-                ReferenceSpec::Normal(m, s)
+            ReferenceSpec::Uniform(a, b)
+        }
+        RawReference::Normal(n) => {
+            let m = ck.finite(&format!("{rp}.normal.mean"), n.mean)?;
+            let s = ck.finite(&format!("{rp}.normal.sd"), n.sd)?;
+            if s <= 0.0 {
+                return Err(ck.error(&format!("{rp}.normal.sd"), format!("must be > 0, got {s}")));
             }
-            RawReference::TailFromProfile(name) => {
-                let j = find(&format!("{rp}.tail-from-profile"), name)?;
-                let ok = matches!(obs[j].read, ReadSpec::Window(_, _, _, SetRead::Positions));
-                if !ok {
-                    return Err(ck.error(
-                        &format!("{rp}.tail-from-profile"),
-                        format!("\"{name}\" must be an exclusion `window` read `as: positions`"),
-                    ));
-                }
-                if !matches!(obs[i].kind, ValueKind::Scalar { integer: true }) {
-                    return Err(ck.error(
-                        &format!("{p}.observable"),
-                        format!("a tail from a profile needs an integer position, but \"{}\" is scaled", obs[i].name),
-                    ));
-                }
-                ReferenceSpec::TailFromProfile(j)
+            ReferenceSpec::Normal(m, s)
+        }
+        RawReference::TracyWidomGue => ReferenceSpec::TracyWidomGue,
+        RawReference::TracyWidomGoe => ReferenceSpec::TracyWidomGoe,
+        RawReference::SecondClassSpeed(r) => {
+            let p = ck.finite(&format!("{rp}.second-class-speed.p"), r.p)?;
+            let q = ck.finite(&format!("{rp}.second-class-speed.q"), r.q)?;
+            if p < 0.0 || q < 0.0 || p <= q {
+                return Err(ck.error(
+                    &format!("{rp}.second-class-speed"),
+                    format!("needs rates p > q ≥ 0, got p = {p}, q = {q}"),
+                ));
             }
-        };
+            ReferenceSpec::Uniform(-(p - q), p - q)
+        }
+        RawReference::TailFromProfile(name) => {
+            let j = find(&format!("{rp}.tail-from-profile"), name)?;
+            let ok = matches!(obs[j].read, ReadSpec::Window(_, _, _, SetRead::Positions));
+            if !ok {
+                return Err(ck.error(
+                    &format!("{rp}.tail-from-profile"),
+                    format!("\"{name}\" must be an exclusion `window` read `as: positions`"),
+                ));
+            }
+            if !matches!(obs[i].kind, ValueKind::Scalar { integer: true }) {
+                return Err(ck.error(
+                    &format!("{p}.observable"),
+                    format!(
+                        "a tail from a profile needs an integer position, but \"{}\" is scaled",
+                        obs[i].name
+                    ),
+                ));
+            }
+            ReferenceSpec::TailFromProfile(j)
+        }
+    };
     Ok(r)
 }

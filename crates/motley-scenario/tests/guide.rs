@@ -92,7 +92,10 @@ fn every_accepted_key_is_documented() {
     assert!(keys.len() > 60, "suspiciously few keys: {keys:?}");
     let words = documented_words(&guide());
     let missing: Vec<&String> = keys.iter().filter(|k| !words.contains(*k)).collect();
-    assert!(missing.is_empty(), "keys accepted by the loader but not in docs/GUIDE.md: {missing:?}");
+    assert!(
+        missing.is_empty(),
+        "keys accepted by the loader but not in docs/GUIDE.md: {missing:?}"
+    );
 }
 
 #[test]

@@ -17,8 +17,14 @@ fn sweeps(c: &mut Criterion) {
     group.throughput(Throughput::Elements((SIDE * SIDE) as u64));
     group.sample_size(20);
     let cases = [
-        ("colored_rainbow_2000x2000", Boundary::rainbow(SIDE, SIDE).unwrap()),
-        ("colorblind_step_2000x2000", Boundary::step(SIDE, SIDE).unwrap()),
+        (
+            "colored_rainbow_2000x2000",
+            Boundary::rainbow(SIDE, SIDE).unwrap(),
+        ),
+        (
+            "colorblind_step_2000x2000",
+            Boundary::step(SIDE, SIDE).unwrap(),
+        ),
     ];
     for (name, boundary) in cases {
         for (kernel, tag) in [

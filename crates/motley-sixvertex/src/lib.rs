@@ -104,6 +104,7 @@ mod model;
 mod outcome;
 mod readout;
 mod strip;
+mod strip_avx2;
 mod sweep;
 mod weight;
 mod weights;

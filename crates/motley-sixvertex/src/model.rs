@@ -11,6 +11,7 @@ use motley_stream::sample_stream;
 use rand_core::Rng;
 
 use crate::strip::{fits, sweep_rows, Kernel, StripRun};
+use crate::strip_avx2;
 use crate::sweep::{sweep_row_with, Cuts};
 use crate::{Boundary, Readout, ReadoutSpec, SixVertexError, VertexRule, VertexWeights};
 
@@ -160,7 +161,13 @@ impl Model {
                     right: &mut out.right,
                 };
                 let vert = &mut out.vert;
-                if fits::<u8>(max) {
+                let simd = self.kernel != Kernel::Portable;
+                if simd
+                    && fits::<u16>(max)
+                    && strip_avx2::try_sweep_rows(&mut run, &mut scratch, vert, y, stop)
+                {
+                    // Done by the AVX2 kernel (16 rows of u16 colors per strip).
+                } else if fits::<u8>(max) {
                     sweep_rows::<u8, 32>(&mut run, &mut scratch, vert, y, stop);
                 } else if fits::<u16>(max) {
                     sweep_rows::<u16, 16>(&mut run, &mut scratch, vert, y, stop);

@@ -68,6 +68,8 @@ pub(crate) trait Lane:
     fn to_color(self) -> Color;
     /// All ones if `b`, else zero.
     fn mask(b: bool) -> Self;
+    /// The small integer `b` (< 256) in this type.
+    fn small(b: u32) -> Self;
     /// This type's scratch in `s`, replacing scratch of another type.
     fn scratch(s: &mut StripScratch) -> &mut StripState<Self>;
 }
@@ -87,6 +89,10 @@ macro_rules! lane {
             #[inline(always)]
             fn mask(b: bool) -> Self {
                 (b as $t).wrapping_neg()
+            }
+            #[inline(always)]
+            fn small(b: u32) -> Self {
+                b as $t
             }
             fn scratch(s: &mut StripScratch) -> &mut StripState<Self> {
                 if !matches!(s, StripScratch::$variant(_)) {
@@ -114,11 +120,12 @@ pub(crate) enum StripScratch {
     U8(StripState<u8>),
     U16(StripState<u16>),
     U32(StripState<u32>),
+    Avx2(crate::strip_avx2::Avx2State),
 }
 
-/// Steps of the wavefront per chunk: the two mask buffers of a chunk hold `2 · CHUNK · L` lane
-/// values, 16 KiB for every lane type (`L · size_of::<T>()` is always 32 bytes), so they stay in L1
-/// between being written and being read.
+/// Steps of the wavefront per chunk: the turn bits of a chunk are `CHUNK · L` lane values, 8 KiB
+/// for every lane type (`L · size_of::<T>()` is always 32 bytes), so they stay in L1 between being
+/// written and being read.
 const CHUNK: usize = 256;
 
 /// The state and buffers of the strip kernel for lane type `T`.
@@ -130,11 +137,9 @@ pub(crate) struct StripState<T> {
     /// slots (the leading ones receive lane `L − 1`'s idle outputs, the trailing ones feed lane 0's
     /// idle inputs; neither reaches the rectangle).
     vert: Vec<T>,
-    /// Skewed turn masks of one chunk for a stronger color from below: entry `s · L + k` is lane
-    /// `k` at step `t₀ + s`.
-    turn_below: Vec<T>,
-    /// The same for a stronger color from the left.
-    turn_left: Vec<T>,
+    /// Skewed turn bits of one chunk: entry `s · L + k` is lane `k` at step `t₀ + s`; bit 0 is
+    /// set if a stronger color from below turns, bit 1 if a stronger color from the left turns.
+    turns: Vec<T>,
     /// One chunk of one row's keystream bytes.
     bytes: Vec<u8>,
 }
@@ -146,8 +151,7 @@ impl<T: Lane> StripState<T> {
             self.width = width;
             self.lanes = lanes;
             self.vert = vec![T::default(); width + 2 * (lanes - 1)];
-            self.turn_below = vec![T::default(); CHUNK * lanes];
-            self.turn_left = vec![T::default(); CHUNK * lanes];
+            self.turns = vec![T::default(); CHUNK * lanes];
             self.bytes = vec![0; 4 * CHUNK];
         }
     }
@@ -169,22 +173,21 @@ impl<T: Lane> StripState<T> {
     }
 }
 
-/// Writes the turn masks of steps `t0..t0 + steps` for the `rngs.len()` active lanes (lane `k`
+/// Writes the turn bits of steps `t0..t0 + steps` for the `rngs.len()` active lanes (lane `k`
 /// draws the next words of its row's stream, one per column it reaches in these steps); every
-/// other slot gets a zero mask.
-fn fill_masks<T: Lane>(
+/// other slot gets no bit (nothing turns).
+fn fill_turns<T: Lane, const L: usize>(
     state: &mut StripState<T>,
     rngs: &mut [motley_stream::ChaCha8Rng],
     t0: usize,
     steps: usize,
     cuts: Cuts,
 ) {
-    let (w, l) = (state.width, state.lanes);
-    let tb = &mut state.turn_below[..steps * l];
-    let tl = &mut state.turn_left[..steps * l];
-    tb.fill(T::default());
-    tl.fill(T::default());
-    for (k, rng) in rngs.iter_mut().enumerate() {
+    let w = state.width;
+    let turns = &mut state.turns[..steps * L];
+    turns.fill(T::default());
+    let (below, left) = (cuts.below, cuts.left);
+    for (k, rng) in rngs.iter_mut().enumerate().take(L) {
         // Lane k processes column t − k (0-based) at step t.
         let first = t0.max(k).min(w + k);
         let last = (t0 + steps).max(k).min(w + k);
@@ -194,43 +197,39 @@ fn fill_masks<T: Lane>(
         }
         let bytes = &mut state.bytes[..4 * n];
         rng.fill_bytes(bytes);
-        let s0 = first - t0;
-        for (j, u) in bytes.chunks_exact(4).enumerate() {
+        let slots = turns.chunks_exact_mut(L).skip(first - t0);
+        for (slot, u) in slots.zip(bytes.chunks_exact(4)) {
             let u = u64::from(u32::from_le_bytes([u[0], u[1], u[2], u[3]]));
-            let i = (s0 + j) * l + k;
-            tb[i] = T::mask(u >= cuts.below);
-            tl[i] = T::mask(u >= cuts.left);
+            slot[k] = T::small(u32::from(u >= below) | (u32::from(u >= left) << 1));
         }
     }
 }
 
-/// The wavefront over steps `t0..t0 + steps` of a strip (`turn_below.len() = steps · L`): `v` is
-/// the color entering each lane from below at step `t0`, `carry` the horizontal color of each lane;
+/// The wavefront over steps `t0..t0 + steps` of a strip (`turns.len() = steps · L`): `v` is the
+/// color entering each lane from below at step `t0`, `carry` the horizontal color of each lane;
 /// both are carried over to the next chunk.
 #[inline(always)]
 fn wavefront<T: Lane, const L: usize>(
     vert: &mut [T],
     t0: usize,
-    turn_below: &[T],
-    turn_left: &[T],
+    turns: &[T],
     v: &mut [T; L],
     carry: &mut [T; L],
 ) {
-    let steps = turn_below.len() / L;
-    assert!(turn_left.len() == steps * L && vert.len() >= t0 + steps + L - 1);
+    let steps = turns.len() / L;
+    assert!(vert.len() >= t0 + steps + L - 1);
     let vert = &mut vert[t0..t0 + steps + L - 1];
+    let (one, two, zero) = (T::small(1), T::small(2), T::default());
     let mut vv = *v;
     let mut c = *carry;
-    for (t, (tb, tl)) in turn_below
-        .chunks_exact(L)
-        .zip(turn_left.chunks_exact(L))
-        .enumerate()
-    {
+    for (t, bits) in turns.chunks_exact(L).enumerate() {
         vv[0] = vert[t + L - 1];
         let mut up = [T::default(); L];
         for k in 0..L {
             let below_wins = T::mask(vv[k] > c[k]);
-            let turn = (tb[k] & below_wins) | (tl[k] & !below_wins);
+            // Bit 0 counts when the color from below is the stronger one, bit 1 otherwise.
+            let which = (one & below_wins) | (two & !below_wins);
+            let turn = !T::mask(bits[k] & which == zero);
             let d = (vv[k] ^ c[k]) & turn;
             up[k] = vv[k] ^ d;
             c[k] = c[k] ^ d;
@@ -247,12 +246,11 @@ fn wavefront<T: Lane, const L: usize>(
 fn wavefront_avx2<T: Lane, const L: usize>(
     vert: &mut [T],
     t0: usize,
-    turn_below: &[T],
-    turn_left: &[T],
+    turns: &[T],
     v: &mut [T; L],
     carry: &mut [T; L],
 ) {
-    wavefront::<T, L>(vert, t0, turn_below, turn_left, v, carry)
+    wavefront::<T, L>(vert, t0, turns, v, carry)
 }
 
 /// Whether the AVX2 build may run here.
@@ -282,7 +280,12 @@ pub(crate) struct StripRun<'a> {
 
 impl StripRun<'_> {
     /// Sweeps rows `y0..y0 + rows` (`rows ≤ L`) over the state in `state`.
-    fn strip<T: Lane, const L: usize>(&mut self, state: &mut StripState<T>, y0: usize, rows: usize) {
+    fn strip<T: Lane, const L: usize>(
+        &mut self,
+        state: &mut StripState<T>,
+        y0: usize,
+        rows: usize,
+    ) {
         debug_assert!(rows >= 1 && rows <= L && state.lanes == L);
         let mut streams: Vec<motley_stream::ChaCha8Rng> = (0..rows)
             .map(|k| sample_stream(self.seed, self.index, (y0 + k) as u64))
@@ -297,23 +300,18 @@ impl StripRun<'_> {
         let mut t0 = 0;
         while t0 < total {
             let steps = CHUNK.min(total - t0);
-            fill_masks(state, &mut streams, t0, steps, self.cuts);
-            let StripState {
-                vert,
-                turn_below,
-                turn_left,
-                ..
-            } = &mut *state;
-            let (tb, tl) = (&turn_below[..steps * L], &turn_left[..steps * L]);
+            fill_turns::<T, L>(state, &mut streams, t0, steps, self.cuts);
+            let StripState { vert, turns, .. } = &mut *state;
+            let bits = &turns[..steps * L];
             #[cfg(target_arch = "x86_64")]
             if simd {
                 // SAFETY: the processor supports AVX2 (checked at run time by `avx2_available`).
-                unsafe { wavefront_avx2::<T, L>(vert, t0, tb, tl, &mut v, &mut carry) };
+                unsafe { wavefront_avx2::<T, L>(vert, t0, bits, &mut v, &mut carry) };
                 t0 += steps;
                 continue;
             }
             let _ = simd;
-            wavefront::<T, L>(vert, t0, tb, tl, &mut v, &mut carry);
+            wavefront::<T, L>(vert, t0, bits, &mut v, &mut carry);
             t0 += steps;
         }
         for (r, &c) in self.right[y0 - 1..y0 - 1 + rows].iter_mut().zip(&carry) {
@@ -361,8 +359,13 @@ mod tests {
             left: 0xA000_0000,
         };
         let mut rng = sample_stream(77, w as u64, h as u64);
-        let vert0: Vec<Color> = (0..w).map(|_| rng.next_u32() % (max + 1)).collect();
-        let left: Vec<Color> = (0..h).map(|_| rng.next_u32() % (max + 1)).collect();
+        let mut color = || {
+            rng.next_u32()
+                .checked_rem(max.wrapping_add(1))
+                .unwrap_or(rng.next_u32())
+        };
+        let vert0: Vec<Color> = (0..w).map(|_| color()).collect();
+        let left: Vec<Color> = (0..h).map(|_| color()).collect();
         // Reference.
         let mut vert = vert0.clone();
         let mut right_ref = vec![0; h];

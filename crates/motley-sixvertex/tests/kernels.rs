@@ -159,15 +159,28 @@ fn large_rectangles_equal_reference() {
         let b = Boundary::new(
             2000,
             37,
-            Side::Bernoulli { density: 0.7, color: ColorRule::Index { offset } },
-            Side::Bernoulli { density: 0.2, color: ColorRule::Index { offset } },
+            Side::Bernoulli {
+                density: 0.7,
+                color: ColorRule::Index { offset },
+            },
+            Side::Bernoulli {
+                density: 0.2,
+                color: ColorRule::Index { offset },
+            },
         )
         .unwrap();
         let m = Model::new(0.35, 0.55, b).unwrap();
-        let spec = ReadoutSpec { horizontal_lines: vec![20, 37], ..ReadoutSpec::default() };
+        let spec = ReadoutSpec {
+            horizontal_lines: vec![20, 37],
+            ..ReadoutSpec::default()
+        };
         let want = run(&m, Kernel::Reference, &spec, 5, 6);
         for kernel in FAST {
-            assert_eq!(run(&m, kernel, &spec, 5, 6), want, "{kernel:?} offset {offset}");
+            assert_eq!(
+                run(&m, kernel, &spec, 5, 6),
+                want,
+                "{kernel:?} offset {offset}"
+            );
         }
     }
 }
