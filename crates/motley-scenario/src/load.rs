@@ -218,7 +218,7 @@ fn expected_name(expected: &str) -> String {
         "enum RawInitial" => "`packed`, `{list: […]}` or `{step: {…}}`",
         "enum RawIndexMap" => "`identity`, `reflection` or `{shift: s}`",
         "enum RawReference" => {
-            "`{uniform: [a, b]}`, `{normal: {mean: m, sd: s}}` or `{tail-from-profile: NAME}`"
+            "a reference law such as `{uniform: [a, b]}` or `{normal: {mean: m, sd: s}}`"
         }
         "enum RawExactMode" => "`auto`, `on` or `off`",
         "enum RawStrength" => "`larger-wins` or `smaller-wins`",

@@ -49,9 +49,10 @@
 //! `sweep.rs`: one small branch-free vertex function (arithmetic masks; an empty `asm!` block stops
 //! LLVM from turning the masks back into branches) and a row loop around it. [`Model::sample`] uses
 //! the strip kernel of `strip.rs` instead whenever no read-out needs every horizontal edge (vertical
-//! lines, the whole configuration): strips of up to 32, 16 or 8 rows (`u8`, `u16` or `u32` colors,
-//! the narrowest that holds the boundary's colors) swept as a wavefront along anti-diagonals, with
-//! AVX2 when the processor has it. A strip ends at every row a read-out records (horizontal lines,
+//! lines, the whole configuration): strips of rows swept as a wavefront along anti-diagonals, with
+//! AVX2 intrinsics (16 rows of `u16` colors, `strip_avx2.rs`) when the processor has it and the
+//! colors fit, else a portable build (32, 16 or 8 rows of `u8`, `u16` or `u32` colors, the
+//! narrowest that holds the boundary's colors). A strip ends at every row a read-out records (horizontal lines,
 //! heights). Tests check both kernels bit for bit on the same words; the state stays O(W).
 //!
 //! # Exact laws

@@ -13,18 +13,20 @@
 //!
 //! # Words
 //! Each row's words are generated in bulk from its own stream (word `x − 1` of stream `y`, the
-//! layout of the crate docs, unchanged) and turned, before the wavefront, into two masks per vertex:
-//! "the stronger color turns if it came from below" (`u ≥ cut_below`) and "… if it came from the
-//! left" (`u ≥ cut_left`). They are stored skewed (entry `t · L + k` for lane `k` at step `t`), so a
-//! step reads one contiguous vector of each. The vertex update is then pure lane arithmetic: a
-//! comparison mask picks the mask, an XOR with it exchanges the two colors (the rule of
-//! [`crate::sweep`]).
+//! layout of the crate docs, unchanged), one chunk of columns at a time, and turned before the
+//! wavefront into two turn bits per vertex: bit 0 "the stronger color turns if it came from below"
+//! (`u ≥ cut_below`), bit 1 "… if it came from the left" (`u ≥ cut_left`). They are stored skewed
+//! (entry `s · L + k` for lane `k` at step `t₀ + s`), so a step reads one contiguous vector. The
+//! vertex update is then pure lane arithmetic: a comparison mask picks the bit, an XOR with the
+//! resulting mask exchanges the two colors (the rule of [`crate::sweep`]).
 //!
 //! # Lanes
 //! The color type is the narrowest of `u8`, `u16`, `u32` that holds the boundary's largest color
-//! (no edge carries more), and `L` fills one 256-bit vector: 32, 16 or 8 rows. The code is written
-//! on plain arrays and compiled twice: with AVX2 enabled (chosen at run time when the processor has
-//! it) and for the baseline target; the compiler vectorises both.
+//! (no edge carries more), and `L` fills one 256-bit vector: 32, 16 or 8 rows. This code is
+//! written on plain arrays and compiled twice: with AVX2 enabled and for the baseline target.
+//! With AVX2 and colors up to `u16::MAX`, [`crate::Model::sample`] prefers the hand-written
+//! kernel of `strip_avx2.rs` (16 rows of `u16`), which measured faster (its per-step gather
+//! replaces the skewed stores of the transposition here).
 
 use motley_colorblind::Color;
 use motley_stream::sample_stream;

@@ -126,8 +126,9 @@ proptest! {
         let every_row = ReadoutSpec { horizontal_lines: (0..=h).collect(), ..ReadoutSpec::default() };
         for kernel in [Kernel::Strips, Kernel::Portable] {
             let lines = run(&replay(w), kernel, &every_row, seed, index).4;
-            for y in 0..=h {
-                prop_assert_eq!(lines[y].as_slice(), config.vertical_line(y), "{:?} row {}", kernel, y);
+            prop_assert_eq!(lines.len(), h + 1);
+            for (y, line) in lines.iter().enumerate() {
+                prop_assert_eq!(line.as_slice(), config.vertical_line(y), "{:?} row {}", kernel, y);
             }
             for x in 1..=w {
                 let right = run(&replay(x), kernel, &ReadoutSpec::default(), seed, index).3;
