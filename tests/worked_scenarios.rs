@@ -112,12 +112,23 @@ fn readme_commands_work() {
     let out = d.path().join("demo-report");
     let o = out.to_str().unwrap();
     for _ in 0..2 {
-        run_ok(&["run", "--example", "rainbow-symmetry", "--out", o, "--overwrite", "--quiet"]);
+        run_ok(&[
+            "run",
+            "--example",
+            "rainbow-symmetry",
+            "--out",
+            o,
+            "--overwrite",
+            "--quiet",
+        ]);
         assert!(out.join("summary.md").is_file());
     }
     let check = run_ok(&["check", "--example", "packed-inverse"]);
     let text = String::from_utf8(check.stdout).unwrap();
-    assert!(text.contains("claim exact-five-sites") && text.contains("decided by exact laws"), "{text}");
+    assert!(
+        text.contains("claim exact-five-sites") && text.contains("decided by exact laws"),
+        "{text}"
+    );
     assert!(text.contains("estimate:"), "{text}");
     let copy_to = d.path().join("mine");
     run_ok(&["examples", "copy", "step-height", copy_to.to_str().unwrap()]);
