@@ -45,7 +45,6 @@
 //!     effect: None,
 //!     exact: None,
 //!     stated: None,
-//!     stated: None,
 //!     estimates: Estimates {
 //!         probabilities: vec![Interval {
 //!             label: "heads".into(),
