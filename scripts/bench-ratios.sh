@@ -47,6 +47,7 @@ get() { awk -v k="$1" '$1 == k {print $2}' "$log/rates.txt"; }
 gett() { awk -v k="$1" '$1 == k {print $3}' "$log/rates.txt"; }
 c_rainbow=$(awk '$1 == "rainbow_2000x2000" {print $2}' "$log/c.txt")
 c_ring=$(awk '$1 == "tasep_ring_1e5" {print $2}' "$log/c.txt")
+c_ring_tuned=$(awk '$1 == "tasep_ring_1e5_tuned" {print $2}' "$log/c.txt")
 strip=$(get sweep/colored_rainbow_2000x2000/strip)
 portable=$(get sweep/colored_rainbow_2000x2000/strip_portable)
 reference=$(get sweep/colored_rainbow_2000x2000/reference)
@@ -62,7 +63,7 @@ ex5f=$(gett exact/rainbow_5x5_f64)
 ex7=$(gett exact_packed7/solve_t1)
 ex7b=$(gett exact_packed7/solve_t20)
 
-awk -v cr="$c_rainbow" -v cg="$c_ring" -v s="$strip" -v p="$portable" -v rf="$reference" \
+awk -v cr="$c_rainbow" -v cg="$c_ring" -v ct="$c_ring_tuned" -v s="$strip" -v p="$portable" -v rf="$reference" \
     -v b="$blind" -v br="$blind_ref" -v l="$limit" -v g="$ring" -v ga="$ring_asep" \
     -v gl="$ring_limit" -v ln="$line" -v e5="$ex5" -v e5f="$ex5f" -v e7="$ex7" -v e7b="$ex7b" 'BEGIN {
     printf "\n%-52s %12s %10s %10s\n", "kernel (one thread)", "rate /s", "x plain C", "x limit"
@@ -76,7 +77,8 @@ awk -v cr="$c_rainbow" -v cg="$c_ring" -v s="$strip" -v p="$portable" -v rf="$re
     printf "%-52s %12.3e %10.2f %10.2f\n", "TASEP ring 1e5 (attempted moves)", g, g / cg, g / gl
     printf "%-52s %12.3e %10.2f %10.2f\n", "ASEP ring 1e5, p=1 q=0.5 (attempted moves)", ga, ga / cg, ga / gl
     printf "%-52s %12.3e %10.2f %10.2f\n", "ChaCha8 limit loop (ring)", gl, gl / cg, 1
-    printf "%-52s %12.3e %10.2f %10s\n", "plain C -O2 TASEP ring 1e5", cg, 1, "-"
+    printf "%-52s %12.3e %10.2f %10s\n", "plain C -O2 TASEP ring 1e5 (double uniform, %)", cg, 1, "-"
+    printf "%-52s %12.3e %10.2f %10s\n", "tuned C -O2 TASEP ring 1e5 (multiply-shift)", ct, ct / cg, "-"
     printf "%-52s %12.3e %10s %10s\n", "ASEP p=1 q=0.5 on Z from step, t=1000 (attempts)", ln, "-", "-"
     printf "\n%-52s %12s\n", "exact solver", "seconds"
     printf "%-52s %12.4f\n", "six-vertex 5x5 rainbow law, rationals", e5

@@ -32,6 +32,10 @@ pub const EXAMPLES: &[(&str, &str)] = &[
         "tasep-tracy-widom",
         include_str!("../scenarios/tasep-tracy-widom.yaml"),
     ),
+    (
+        "speed-process-pair",
+        include_str!("../scenarios/speed-process-pair.yaml"),
+    ),
 ];
 
 /// The text of example `name`.

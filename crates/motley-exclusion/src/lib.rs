@@ -67,6 +67,7 @@ mod line_process;
 mod observer;
 mod rates;
 mod readout;
+mod step_counts;
 mod words;
 
 pub use error::ExclusionError;
@@ -79,3 +80,4 @@ pub use line_process::{LineProcess, LINE_STREAM};
 pub use motley_colorblind::Color;
 pub use rates::Rates;
 pub use readout::{Reading, Readings, Readout, ReadoutPlan, MAX_WINDOW};
+pub use step_counts::{step_counts, STEP_COUNT_STREAM};

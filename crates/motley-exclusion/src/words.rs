@@ -32,10 +32,17 @@ impl Words {
 
     #[cold]
     fn refill(&mut self) {
-        let mut bytes = [0u8; BUF_WORDS * 4];
-        self.rng.fill_bytes(&mut bytes);
-        for (w, c) in self.buf.iter_mut().zip(bytes.chunks_exact(4)) {
-            *w = u32::from_le_bytes([c[0], c[1], c[2], c[3]]);
+        // SAFETY: `buf` is `BUF_WORDS` initialised `u32`s, i.e. `4 · BUF_WORDS` bytes with no
+        // padding, and any byte pattern is a valid `u32`; the view lives only for this call.
+        let bytes = unsafe {
+            core::slice::from_raw_parts_mut(self.buf.as_mut_ptr().cast::<u8>(), BUF_WORDS * 4)
+        };
+        self.rng.fill_bytes(bytes);
+        // The stream's words are little-endian; on a big-endian target swap them into place.
+        if cfg!(target_endian = "big") {
+            for w in self.buf.iter_mut() {
+                *w = u32::from_le(*w);
+            }
         }
         self.pos = 0;
     }

@@ -189,7 +189,119 @@ pub(crate) fn draw_claim(
         })?;
     }
 
-    if est.probabilities.len() >= 2 {
+    if !est.series.is_empty() {
+        let pts = &est.series;
+        let axis = est
+            .series_axis
+            .clone()
+            .unwrap_or_else(|| "parameter".into());
+        let events = pts.iter().all(|p| p.sd.is_none());
+        let measured = Series {
+            label: if events {
+                "estimated probability".into()
+            } else {
+                "measured mean".into()
+            },
+            x: pts.iter().map(|p| p.at).collect(),
+            y: pts.iter().map(|p| p.estimate).collect(),
+            lower: pts.iter().map(|p| p.lower).collect(),
+            upper: pts.iter().map(|p| p.upper).collect(),
+        };
+        let predicted: Vec<(f64, f64)> = pts
+            .iter()
+            .filter_map(|p| p.predicted.map(|v| (p.at, v)))
+            .collect();
+        let theory = (predicted.len() == pts.len()).then(|| Series {
+            label: est.series_theory.clone().unwrap_or_else(|| "theory".into()),
+            x: predicted.iter().map(|p| p.0).collect(),
+            y: predicted.iter().map(|p| p.1).collect(),
+            lower: predicted.iter().map(|p| p.1).collect(),
+            upper: predicted.iter().map(|p| p.1).collect(),
+        });
+        let title = format!(
+            "{}: {} against {axis}",
+            claim.id,
+            if events { "probability" } else { "mean" }
+        );
+        let spec = ChartSpec {
+            title: title.clone(),
+            x_desc: axis.clone(),
+            y_desc: if events {
+                "probability".into()
+            } else {
+                "mean".into()
+            },
+            y_range: None,
+            legend: SeriesLabelPosition::UpperRight,
+            categories: None,
+            integer_x: false,
+        };
+        let caption = format!(
+            "{} at each {axis} with {level}% intervals (bars){}.",
+            if events {
+                "Estimated probability"
+            } else {
+                "Measured mean"
+            },
+            if theory.is_some() {
+                "; dashed grey: the theory's value"
+            } else {
+                ""
+            }
+        );
+        emit("series", title, caption, &|p| {
+            chart::bars(&spec, &[&measured], theory.as_ref(), p)
+        })?;
+        if pts.iter().all(|p| p.distance.is_some()) {
+            let distance = Series {
+                label: "Kolmogorov distance".into(),
+                x: pts.iter().map(|p| p.at).collect(),
+                y: pts.iter().map(|p| p.distance.unwrap_or(0.0)).collect(),
+                lower: pts.iter().map(|p| p.distance.unwrap_or(0.0)).collect(),
+                upper: pts
+                    .iter()
+                    .map(|p| p.distance_upper.unwrap_or(1.0))
+                    .collect(),
+            };
+            let title = format!("{}: distance to the reference against {axis}", claim.id);
+            let spec = ChartSpec {
+                title: title.clone(),
+                x_desc: axis.clone(),
+                y_desc: "sup |F_n − F|".into(),
+                y_range: None,
+                legend: SeriesLabelPosition::UpperRight,
+                categories: None,
+                integer_x: false,
+            };
+            let caption = format!(
+                "Kolmogorov distance of each empirical CDF to the reference (dots) with its {level}% upper bound (bar top); on integer-valued data it includes the lattice's own steps."
+            );
+            emit("distance", title, caption, &|p| {
+                chart::bars(&spec, &[&distance], None, p)
+            })?;
+        }
+    }
+
+    if let Some(law) = &est.joint {
+        let title = format!(
+            "{}: joint law of {} and {}",
+            claim.id, law.labels[0], law.labels[1]
+        );
+        let caption = format!(
+            "Fraction of samples in each of {b}×{b} cells (darker: more){}; dashed: the diagonal.",
+            if law.reference_cells.is_some() {
+                ", beside the reference law's mass of the same cells on the same scale (its mass on the diagonal falls in the diagonal cells)"
+            } else {
+                ""
+            },
+            b = law.bins
+        );
+        emit("joint", title.clone(), caption, &|p| {
+            crate::heatmap::joint_chart(law, &title, p)
+        })?;
+    }
+
+    if est.probabilities.len() >= 2 && est.series.is_empty() {
         let (series, x_desc, categories) = probability_series(&est.probabilities);
         let reference = est
             .reference

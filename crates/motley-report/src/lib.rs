@@ -106,6 +106,7 @@ mod chart;
 mod error;
 mod figures;
 mod format;
+mod heatmap;
 mod palette;
 mod picture;
 mod picture_draw;

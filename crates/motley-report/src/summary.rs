@@ -38,7 +38,7 @@ fn is_exact(claim: &ClaimResult) -> bool {
 
 /// Whether `claim` only describes (tests nothing).
 fn is_describe(claim: &ClaimResult) -> bool {
-    claim.kind == "describe"
+    matches!(claim.kind.as_str(), "describe" | "series" | "joint")
 }
 
 /// Whether `claim` was put to a test or an exact decision (and so could raise a false alarm).
@@ -364,6 +364,14 @@ fn claim_section(
 /// Tables of probabilities, top outcomes and moments.
 fn estimates(s: &mut String, claim: &ClaimResult) {
     let est = &claim.estimates;
+    if !est.series.is_empty() {
+        series_table(s, claim);
+        return;
+    }
+    if let Some(law) = &est.joint {
+        joint_table(s, law);
+        return;
+    }
     if let Some(st) = &claim.stated {
         let what = if st.role == "limit" {
             "Limit quoted beside the measured mean (not tested)"
@@ -452,6 +460,120 @@ fn estimates(s: &mut String, claim: &ClaimResult) {
         }
         s.push('\n');
     }
+}
+
+/// The table of a `series` claim: one row per observable.
+fn series_table(s: &mut String, claim: &ClaimResult) {
+    let est = &claim.estimates;
+    let axis = est.series_axis.as_deref().unwrap_or("parameter");
+    let theory = est.series_theory.as_deref().unwrap_or("theory");
+    let events = est.series.iter().all(|p| p.sd.is_none());
+    let with_distance = est.series.iter().any(|p| p.distance.is_some());
+    let _ = writeln!(
+        s,
+        "### Along {}
+",
+        code(axis)
+    );
+    let _ = writeln!(
+        s,
+        "Theory: {} (drawn beside the estimates, not tested).\n",
+        cell(theory)
+    );
+    let mut head = format!(
+        "| {} | Observable | Samples | {} | 1 − α interval |",
+        cell(axis),
+        if events { "Probability" } else { "Mean" }
+    );
+    let mut rule = String::from("|---|---|---|---|---|");
+    if !events {
+        head.push_str(" Standard deviation |");
+        rule.push_str("---|");
+    }
+    head.push_str(" Theory | Estimate − theory |");
+    rule.push_str("---|---|");
+    if with_distance {
+        head.push_str(" Reference sd | Kolmogorov distance (upper bound) |");
+        rule.push_str("---|---|");
+    }
+    let _ = writeln!(s, "{head}\n{rule}");
+    let opt = |v: Option<f64>| v.map(num).unwrap_or_else(|| "—".into());
+    for p in &est.series {
+        let _ = write!(
+            s,
+            "| {} | {} | {} | {} | [{}, {}] |",
+            num(p.at),
+            code(&p.label),
+            p.count,
+            num(p.estimate),
+            num(p.lower),
+            num(p.upper)
+        );
+        if !events {
+            let _ = write!(s, " {} |", opt(p.sd));
+        }
+        let _ = write!(
+            s,
+            " {} | {} |",
+            opt(p.predicted),
+            opt(p.predicted.map(|v| p.estimate - v))
+        );
+        if with_distance {
+            let _ = write!(
+                s,
+                " {} | {} ({}) |",
+                opt(p.predicted_sd),
+                opt(p.distance),
+                opt(p.distance_upper)
+            );
+        }
+        s.push('\n');
+    }
+    s.push('\n');
+}
+
+/// The tables of a `joint` claim: regions and the correlation.
+fn joint_table(s: &mut String, law: &motley_scenario::result::JointLaw) {
+    let _ = writeln!(s, "### Regions\n");
+    let _ = writeln!(
+        s,
+        "| Region | Successes / trials | Estimate | Wilson interval | Reference |"
+    );
+    let _ = writeln!(s, "|---|---|---|---|---|");
+    for r in &law.regions {
+        let e = &r.estimate;
+        let _ = writeln!(
+            s,
+            "| {} | {} / {} | {} | [{}, {}] | {} |",
+            code(&e.label),
+            e.successes,
+            e.trials,
+            num(e.estimate),
+            num(e.wilson_lower),
+            num(e.wilson_upper),
+            r.reference.map(num).unwrap_or_else(|| "—".into())
+        );
+    }
+    if law.reference.as_deref() == Some("speed-process-pair") {
+        let _ = writeln!(
+            s,
+            "\nThe reference of `>` is P(U₀ ≥ U₁) = 1/2 + 1/6: the limit's mass 1/6 on the diagonal (swapped, then equal speeds) sits among the swapped pairs at finite t, where the two particles never share a site."
+        );
+    }
+    let _ = writeln!(
+        s,
+        "\nCorrelation of {} and {}: {} over {} samples. Grid: {}×{} cells on [{}, {}] × [{}, {}].\n",
+        code(&law.labels[0]),
+        code(&law.labels[1]),
+        num(law.correlation),
+        law.count,
+        law.bins,
+        law.bins,
+        num(law.x_range[0]),
+        num(law.x_range[1]),
+        num(law.y_range[0]),
+        num(law.y_range[1])
+    );
 }
 
 /// Everything needed to rerun.

@@ -34,6 +34,15 @@ pub enum Accumulator {
     Event(EventCounts),
     /// Sequences.
     Sequence(SequenceCounts),
+    /// Pairs of numbers read from one sample (a `joint` claim).
+    Pairs(PairValues),
+}
+
+/// Pairs of numbers, one per sample, in arrival order until sorted (lexicographically).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct PairValues {
+    /// The pairs.
+    pub values: Vec<[f64; 2]>,
 }
 
 /// Counts of a set observable.
@@ -206,6 +215,11 @@ impl Accumulator {
         }
     }
 
+    /// An empty accumulator of pairs.
+    pub fn pairs() -> Self {
+        Accumulator::Pairs(PairValues { values: Vec::new() })
+    }
+
     /// Adds one number.
     pub fn add_scalar(&mut self, v: f64) {
         if let Accumulator::Scalar(s) = self {
@@ -255,14 +269,19 @@ impl Accumulator {
                 a.n += b.n;
                 add_counts(&mut a.counts, &b.counts);
             }
+            (Accumulator::Pairs(a), Accumulator::Pairs(b)) => a.values.extend_from_slice(&b.values),
             _ => {}
         }
     }
 
     /// Puts the values in a canonical order (scalars sorted), after all merges.
     pub fn canonicalize(&mut self) {
-        if let Accumulator::Scalar(s) = self {
-            s.values.sort_by(f64::total_cmp);
+        match self {
+            Accumulator::Scalar(s) => s.values.sort_by(f64::total_cmp),
+            Accumulator::Pairs(p) => p
+                .values
+                .sort_by(|a, b| a[0].total_cmp(&b[0]).then(a[1].total_cmp(&b[1]))),
+            _ => {}
         }
     }
 
@@ -273,6 +292,7 @@ impl Accumulator {
             Accumulator::Scalar(s) => s.values.len() as u64,
             Accumulator::Event(e) => e.n,
             Accumulator::Sequence(s) => s.n,
+            Accumulator::Pairs(p) => p.values.len() as u64,
         }
     }
 }

@@ -343,7 +343,7 @@ pub fn reference_cdf(r: &ReferenceSpec) -> Option<Box<dyn Fn(f64) -> f64>> {
     }
 }
 
-fn reference_name(r: &ReferenceSpec) -> String {
+pub(crate) fn reference_name(r: &ReferenceSpec) -> String {
     match *r {
         ReferenceSpec::Uniform(a, b) => format!("Uniform[{a}, {b}]"),
         ReferenceSpec::Normal(m, sd) => format!("Normal(mean {m}, sd {sd})"),
@@ -507,6 +507,14 @@ pub fn evaluate(
         ClaimKind::LawOf(a, _) => ("law-of", vec![name(*a).into()]),
         ClaimKind::Probability(a, _) => ("probability", vec![name(*a).into()]),
         ClaimKind::Describe(a, ..) => ("describe", vec![name(*a).into()]),
+        ClaimKind::Series(sr) => (
+            "series",
+            sr.observables
+                .iter()
+                .map(|&o| name(o).to_string())
+                .collect(),
+        ),
+        ClaimKind::Joint(a, b, _) => ("joint", vec![name(*a).into(), name(*b).into()]),
     };
     let labels: [&str; 2] = [
         observables.first().map(|s| s.as_str()).unwrap_or(""),
@@ -675,7 +683,17 @@ pub fn evaluate(
                 est.top_outcomes
                     .push(top_outcomes(&q.counts, q.n, 20, |k| show_sequence(k)))
             }
+            Accumulator::Pairs(_) => {}
         },
+        ClaimKind::Series(sr) => {
+            let a: Vec<&Accumulator> = sl.iter().map(|x| accs(slots, x)).collect();
+            crate::evaluate_series::series(s, sr, &a, &mut est);
+        }
+        ClaimKind::Joint(_, _, reference) => {
+            if let Accumulator::Pairs(p) = accs(slots, &sl[2]) {
+                crate::evaluate_series::joint(s, labels, p, *reference, &mut est);
+            }
+        }
     }
     let rejected = fam.close(s.alpha);
     let samples = sl.first().map(|x| accs(slots, x).count()).unwrap_or(0);
@@ -726,6 +744,9 @@ pub fn evaluate(
 fn verdict(s: &Scenario, c: &ClaimSpec, rejected: bool, effect: &Option<Effect>) -> String {
     if matches!(c.kind, ClaimKind::Describe(..)) {
         return "no claim: estimates only".into();
+    }
+    if matches!(c.kind, ClaimKind::Series(_) | ClaimKind::Joint(..)) {
+        return "no claim: estimates beside the theory, shown, not tested".into();
     }
     if matches!(c.kind, ClaimKind::Probability(_, None)) {
         return "no stated value: estimate with intervals only".into();

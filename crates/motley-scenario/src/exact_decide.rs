@@ -241,6 +241,9 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
     let name = |i: usize| s.observables[i].name.clone();
     let mut est = Estimates::default();
     let (kind, observables, discrepancy, probability, error, outcomes, rational) = match &c.kind {
+        ClaimKind::Series(_) | ClaimKind::Joint(..) => {
+            return Err("`series` and `joint` claims are estimated by Monte Carlo only".into())
+        }
         ClaimKind::SameLaw(a, b) => {
             let (la, lb) = (observable_law(s, *a)?, observable_law(s, *b)?);
             let rational = match (rational_law(s, *a), rational_law(s, *b)) {

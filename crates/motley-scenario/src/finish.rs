@@ -175,7 +175,7 @@ pub fn finish(s: &Scenario, plan: &Plan, partials: &[Partial], git_commit: &str)
     let mut slots: Vec<(crate::unit::Slot, Accumulator)> = plan
         .slots
         .iter()
-        .map(|sl| (*sl, Accumulator::new(s.observables[sl.observable].kind)))
+        .map(|sl| (*sl, sl.accumulator(s)))
         .collect();
     let mut wall = 0.0;
     let mut threads = 0;

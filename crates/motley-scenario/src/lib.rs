@@ -40,6 +40,7 @@ pub mod cost;
 pub mod error;
 pub mod estimate;
 pub mod evaluate;
+pub mod evaluate_series;
 mod exact_decide;
 mod exclusion_unit;
 pub mod finish;
@@ -57,6 +58,7 @@ mod six_vertex_unit;
 mod suggest;
 pub mod unit;
 pub mod validate;
+mod validate_series;
 
 pub use error::ScenarioError;
 pub use load::load_str;

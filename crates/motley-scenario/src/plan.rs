@@ -90,6 +90,8 @@ fn claim_observables(kind: &ClaimKind) -> Vec<usize> {
         ClaimKind::LawOf(a, _) | ClaimKind::Probability(a, _) | ClaimKind::Describe(a, ..) => {
             vec![*a]
         }
+        ClaimKind::Series(sr) => sr.observables.clone(),
+        ClaimKind::Joint(a, b, _) => vec![*a, *b],
     }
 }
 
@@ -100,9 +102,13 @@ fn claim_observables(kind: &ClaimKind) -> Vec<usize> {
 pub fn plan(s: &Scenario, file: &str) -> Result<Plan, ScenarioError> {
     let mut exact = Vec::new();
     for (i, c) in s.claims.iter().enumerate() {
-        let obstacle = claim_observables(&c.kind)
-            .into_iter()
-            .find_map(|o| exact_obstacle(s, o));
+        let obstacle = if matches!(c.kind, ClaimKind::Series(_) | ClaimKind::Joint(..)) {
+            Some("`series` and `joint` claims are estimated by Monte Carlo only".to_string())
+        } else {
+            claim_observables(&c.kind)
+                .into_iter()
+                .find_map(|o| exact_obstacle(s, o))
+        };
         let e = match (c.exact, obstacle) {
             (ExactMode::Off, _) => false,
             (ExactMode::Auto, o) => o.is_none(),

@@ -399,12 +399,35 @@ pub struct RawClaim {
     /// No claim: the estimated law with intervals.
     #[serde(default)]
     pub describe: Option<String>,
-    /// With `describe` of a number: a reference law drawn beside it (shown, not tested).
+    /// No claim: observables along a parameter, beside a reference, a limit or a profile.
+    #[serde(default)]
+    pub series: Option<RawSeries>,
+    /// No claim: the joint law of two numbers of one model.
+    #[serde(default)]
+    pub joint: Option<[String; 2]>,
+    /// With `describe` of a number or a `series` of numbers: a reference law drawn beside it
+    /// (shown, not tested); with `joint`: a joint limit law.
     #[serde(default)]
     pub reference: Option<RawReference>,
-    /// With `describe` of a number: a limiting value quoted beside the measured mean.
+    /// With `describe` of a number or a `series`: a limiting value quoted beside the estimates.
     #[serde(default)]
     pub limit: Option<f64>,
+    /// With a `series` of numbers: a named profile drawn beside the means.
+    #[serde(default)]
+    pub profile: Option<String>,
+}
+
+/// `series:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawSeries {
+    /// The observables, in order.
+    pub observables: Vec<String>,
+    /// The parameter value of each, increasing.
+    pub at: Vec<f64>,
+    /// The parameter's name (default `t`).
+    #[serde(default)]
+    pub axis: Option<String>,
 }
 
 /// `law-of:` keys.
@@ -434,6 +457,8 @@ pub enum RawReference {
     TracyWidomGoe,
     /// Uniform on `[−(p − q), p − q]`: the limiting speed of a second-class particle from step data.
     SecondClassSpeed(RawRates),
+    /// The joint law of the TASEP speed process at the particles started at 0 and 1 (`joint` only).
+    SpeedProcessPair,
 }
 
 /// `second-class-speed:` keys.

@@ -170,6 +170,81 @@ pub struct Estimates {
     pub top_outcomes: Vec<Vec<Outcome>>,
     /// Mean and standard deviation of numbers, per side.
     pub moments: Vec<Moments>,
+    /// `series` claims: one point per observable, in the order of the parameter.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub series: Vec<SeriesPoint>,
+    /// `series` claims: the parameter's name.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub series_axis: Option<String>,
+    /// `series` claims: what the predicted values are (a profile, a limit, a reference's mean).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub series_theory: Option<String>,
+    /// `joint` claims: the binned joint law, beside its reference when one is named.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub joint: Option<JointLaw>,
+}
+
+/// One point of a `series` claim.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SeriesPoint {
+    /// The observable's name.
+    pub label: String,
+    /// The parameter value.
+    pub at: f64,
+    /// Mean (numbers) or probability (events).
+    pub estimate: f64,
+    /// Lower end of the `1 − alpha` interval (normal for a mean, Wilson for a probability).
+    pub lower: f64,
+    /// Upper end.
+    pub upper: f64,
+    /// Standard deviation (numbers).
+    pub sd: Option<f64>,
+    /// The theory's value here: the profile's, the limit, or the reference law's mean.
+    pub predicted: Option<f64>,
+    /// The reference law's standard deviation (numbers with a reference).
+    pub predicted_sd: Option<f64>,
+    /// Kolmogorov distance to the reference law (numbers with a reference).
+    pub distance: Option<f64>,
+    /// Its upper `1 − alpha` bound (DKW).
+    pub distance_upper: Option<f64>,
+    /// Samples.
+    pub count: u64,
+}
+
+/// The joint law of two numbers on a grid of equal cells.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct JointLaw {
+    /// The two observables' names (first: horizontal axis).
+    pub labels: [String; 2],
+    /// Lower and upper end of the grid on the first axis.
+    pub x_range: [f64; 2],
+    /// Lower and upper end of the grid on the second axis.
+    pub y_range: [f64; 2],
+    /// Cells per axis.
+    pub bins: usize,
+    /// Fraction of samples in each cell, row by row from the lowest second value
+    /// (`cells[j * bins + i]`: first value in bin i, second in bin j).
+    pub cells: Vec<f64>,
+    /// The reference law's mass in each cell, when a reference is named.
+    pub reference_cells: Option<Vec<f64>>,
+    /// The reference's name.
+    pub reference: Option<String>,
+    /// Regions of the plane: `first < second`, `first > second`, `first = second`, with the
+    /// reference's mass of each (where it has one).
+    pub regions: Vec<Region>,
+    /// Sample correlation of the two numbers.
+    pub correlation: f64,
+    /// Samples.
+    pub count: u64,
+}
+
+/// An estimated probability of a region beside the reference's.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Region {
+    /// The estimate with its intervals.
+    pub estimate: Interval,
+    /// The reference law's mass of the region.
+    pub reference: Option<f64>,
 }
 
 /// A curve with a confidence band: `x`, estimate, lower and upper bound.

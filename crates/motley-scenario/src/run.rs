@@ -18,7 +18,7 @@ use crate::plan::Plan;
 use crate::scenario::{ModelKind, Scenario};
 use crate::unit::{Slot, Unit};
 
-/// Samples per work chunk: the grain of parallelism, progress and checkpoints.
+/// Largest number of samples per work chunk: the grain of parallelism, progress and checkpoints.
 pub const CHUNK: u64 = 256;
 
 /// Schema name of partial (shard or checkpoint) files.
@@ -84,7 +84,7 @@ impl Partial {
             slots: plan
                 .slots
                 .iter()
-                .map(|sl| (*sl, Accumulator::new(s.observables[sl.observable].kind)))
+                .map(|sl| (*sl, sl.accumulator(s)))
                 .collect(),
             wall_seconds: 0.0,
             threads: 0,
@@ -140,11 +140,7 @@ fn sampler<'a>(s: &'a Scenario, u: &Unit) -> Result<Sampler<'a>, RunError> {
 /// Runs sample indices `[from, to)` of every unit of `plan` and returns the accumulators, in the
 /// order of `plan.slots`.
 fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumulator>, RunError> {
-    let mut out: Vec<Accumulator> = plan
-        .slots
-        .iter()
-        .map(|sl| Accumulator::new(s.observables[sl.observable].kind))
-        .collect();
+    let mut out: Vec<Accumulator> = plan.slots.iter().map(|sl| sl.accumulator(s)).collect();
     for u in &plan.units {
         let mut smp = sampler(s, u)?;
         let positions: Vec<usize> = u
@@ -153,7 +149,9 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
             .map(|&o| {
                 plan.slots
                     .iter()
-                    .position(|sl| sl.observable == o && sl.replica == u.replica)
+                    .position(|sl| {
+                        sl.observable == o && sl.replica == u.replica && sl.partner.is_none()
+                    })
                     .expect("every unit observable has a slot")
             })
             .collect();
@@ -166,6 +164,29 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
         }
         for (acc, &p) in local.into_iter().zip(&positions) {
             out[p] = acc;
+        }
+    }
+    // Pair slots: both observables' values of this range are in sample order here (they are
+    // sorted only after all merges), so zipping them pairs the readings of each sample.
+    for (k, sl) in plan.slots.iter().enumerate() {
+        let Some(b) = sl.partner else { continue };
+        let find = |o: usize| {
+            plan.slots
+                .iter()
+                .position(|x| x.observable == o && x.replica == sl.replica && x.partner.is_none())
+                .expect("a pair slot's observables have slots")
+        };
+        let pairs: Vec<[f64; 2]> = match (&out[find(sl.observable)], &out[find(b)]) {
+            (Accumulator::Scalar(x), Accumulator::Scalar(y)) => x
+                .values
+                .iter()
+                .zip(&y.values)
+                .map(|(&a, &b)| [a, b])
+                .collect(),
+            _ => Vec::new(),
+        };
+        if let Accumulator::Pairs(p) = &mut out[k] {
+            p.values = pairs;
         }
     }
     Ok(out)
@@ -198,7 +219,12 @@ pub fn advance(
         .map_err(|_| RunError::Threads(threads))?;
     // Work proceeds in rounds of a few chunks per thread, so that a stop request is honoured soon
     // and every round ends on a chunk boundary that a checkpoint can record.
-    let round = CHUNK * 8 * threads as u64;
+    // Chunks shrink when few samples remain, so that every thread gets work even in a run of a
+    // few expensive samples; the chunk layout changes no result (merges are exact).
+    let chunk = (until - partial.done)
+        .div_ceil(8 * threads as u64)
+        .clamp(1, CHUNK);
+    let round = chunk * 8 * threads as u64;
     while partial.done < until {
         if stop.load(Ordering::Relaxed) {
             break;
@@ -206,8 +232,8 @@ pub fn advance(
         let lo = partial.done;
         let hi = (lo + round).min(until);
         let chunks: Vec<(u64, u64)> = (lo..hi)
-            .step_by(CHUNK as usize)
-            .map(|a| (a, (a + CHUNK).min(hi)))
+            .step_by(chunk as usize)
+            .map(|a| (a, (a + chunk).min(hi)))
             .collect();
         let results: Vec<Result<Vec<Accumulator>, RunError>> = pool.install(|| {
             chunks

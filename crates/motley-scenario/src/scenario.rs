@@ -306,6 +306,44 @@ pub enum ClaimKind {
     Probability(usize, Option<f64>),
     /// No claim: describe the law, optionally beside a reference law or a limiting value.
     Describe(usize, Option<ReferenceSpec>, Option<f64>),
+    /// No claim: how a run of observables changes along a parameter, beside a theory.
+    Series(SeriesSpec),
+    /// No claim: the joint law of two numbers of one model, optionally beside a limit law.
+    Joint(usize, usize, Option<JointReference>),
+}
+
+/// A `series` claim: observables indexed by a parameter (a time, a size, a position).
+#[derive(Debug, Clone, PartialEq)]
+pub struct SeriesSpec {
+    /// The observables, all numbers or all events, in the order of `at`.
+    pub observables: Vec<usize>,
+    /// The parameter value of each observable, increasing.
+    pub at: Vec<f64>,
+    /// The parameter's name for axes and tables.
+    pub axis: String,
+    /// Numbers: a law each one is drawn against (Kolmogorov distance per point).
+    pub reference: Option<ReferenceSpec>,
+    /// A limiting value: of the mean (numbers) or of the probability (events).
+    pub limit: Option<f64>,
+    /// Numbers: a named profile giving the predicted value at each observable's coordinates.
+    pub profile: Option<ProfileSpec>,
+}
+
+/// A named profile, resolved per observable into predicted values.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ProfileSpec {
+    /// The registry name (`six-vertex-step-height`, `tasep-step-count`).
+    pub name: String,
+    /// The predicted value at each observable of the series, after `shift` and `scale`.
+    pub values: Vec<f64>,
+}
+
+/// A limit law for a `joint` claim.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum JointReference {
+    /// The TASEP speed process: the joint law of the speeds of the particles started at 0 and 1
+    /// from the packed start (Amir, Angel and Valkó 2011).
+    SpeedProcessPair,
 }
 
 /// A claim.

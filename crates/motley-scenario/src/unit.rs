@@ -38,7 +38,8 @@ pub fn unit_seed(seed: u64, name: &str, replica: u32) -> u64 {
     u64::from_le_bytes(d[..8].try_into().expect("8 bytes"))
 }
 
-/// Observable `o` on replica `r`: an accumulator slot.
+/// Observable `o` on replica `r`: an accumulator slot. With a `partner`, the slot holds the pairs
+/// (value of `observable`, value of `partner`) read from the same samples of the replica.
 #[derive(
     Debug, Clone, Copy, PartialEq, Eq, PartialOrd, Ord, Hash, serde::Serialize, serde::Deserialize,
 )]
@@ -47,6 +48,19 @@ pub struct Slot {
     pub observable: usize,
     /// Replica.
     pub replica: u32,
+    /// The second observable of a pair slot.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub partner: Option<usize>,
+}
+
+impl Slot {
+    /// The empty accumulator this slot holds.
+    pub fn accumulator(&self, s: &Scenario) -> crate::accumulate::Accumulator {
+        match self.partner {
+            Some(_) => crate::accumulate::Accumulator::pairs(),
+            None => crate::accumulate::Accumulator::new(s.observables[self.observable].kind),
+        }
+    }
 }
 
 /// The slots each claim reads, side by side.
@@ -54,6 +68,7 @@ pub fn claim_slots(s: &Scenario, claim: usize) -> Vec<Slot> {
     let obs = |o: usize, r: u32| Slot {
         observable: o,
         replica: r,
+        partner: None,
     };
     match &s.claims[claim].kind {
         ClaimKind::SameLaw(a, b) => {
@@ -67,6 +82,16 @@ pub fn claim_slots(s: &Scenario, claim: usize) -> Vec<Slot> {
         ClaimKind::LawOf(a, _) | ClaimKind::Probability(a, _) | ClaimKind::Describe(a, ..) => {
             vec![obs(*a, 0)]
         }
+        ClaimKind::Series(sr) => sr.observables.iter().map(|&o| obs(o, 0)).collect(),
+        ClaimKind::Joint(a, b, _) => vec![
+            obs(*a, 0),
+            obs(*b, 0),
+            Slot {
+                observable: *a,
+                replica: 0,
+                partner: Some(*b),
+            },
+        ],
     }
 }
 
@@ -85,7 +110,11 @@ pub fn units_for(s: &Scenario, claims: &[usize]) -> Vec<Unit> {
     for (model, replica) in keys {
         let observables = slots
             .iter()
-            .filter(|sl| sl.replica == replica && s.observables[sl.observable].model == model)
+            .filter(|sl| {
+                sl.partner.is_none()
+                    && sl.replica == replica
+                    && s.observables[sl.observable].model == model
+            })
             .map(|sl| sl.observable)
             .collect();
         units.push(Unit {

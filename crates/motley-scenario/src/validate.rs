@@ -236,7 +236,15 @@ pub fn validate(
                 format!("claim id \"{}\" is already used by claims[{prev}]", c.id),
             ));
         }
-        claims.push(claim(&ck, &path, c, &observables, &obs_names, exact)?);
+        claims.push(claim(
+            &ck,
+            &path,
+            c,
+            &observables,
+            &models,
+            &obs_names,
+            exact,
+        )?);
     }
     if claims.is_empty() {
         return Err(ck.error(
@@ -565,6 +573,7 @@ fn claim(
     path: &str,
     c: &RawClaim,
     obs: &[ObservableSpec],
+    models: &[ModelSpec],
     names: &[&str],
     default_mode: ExactMode,
 ) -> Result<ClaimSpec, ScenarioError> {
@@ -573,6 +582,8 @@ fn claim(
         c.law_of.is_some(),
         c.probability.is_some(),
         c.describe.is_some(),
+        c.series.is_some(),
+        c.joint.is_some(),
     ]
     .iter()
     .filter(|b| **b)
@@ -580,7 +591,7 @@ fn claim(
     if given != 1 {
         return Err(ck.error(
             path,
-            format!("a claim needs exactly one of `same-law`, `law-of`, `probability`, `describe`; found {given}"),
+            format!("a claim needs exactly one of `same-law`, `law-of`, `probability`, `describe`, `series`, `joint`; found {given}"),
         ));
     }
     let find = |p: &str, n: &str| -> Result<usize, ScenarioError> {
@@ -589,7 +600,12 @@ fn claim(
             .position(|k| *k == n)
             .ok_or_else(|| ck.unknown_name(p, "observable", n, names))
     };
-    let kind = if let Some([a, b]) = &c.same_law {
+    let reference_at = |rp: &str, r: &RawReference, i: usize| reference(ck, rp, r, i, obs, &find);
+    let kind = if let Some(sr) = &c.series {
+        crate::validate_series::series(ck, path, sr, c, (obs, models), &find, &reference_at)?
+    } else if let Some(pair) = &c.joint {
+        crate::validate_series::joint(ck, path, pair, c, obs, models, &find)?
+    } else if let Some([a, b]) = &c.same_law {
         let ia = find(&format!("{path}.same-law[0]"), a)?;
         let ib = find(&format!("{path}.same-law[1]"), b)?;
         let (ka, kb) = (obs[ia].kind, obs[ib].kind);
@@ -685,7 +701,16 @@ fn claim(
         }
         ClaimKind::Describe(i, reference, c.limit)
     };
-    if !matches!(kind, ClaimKind::Describe(..)) {
+    if !matches!(
+        kind,
+        ClaimKind::Describe(..) | ClaimKind::Series(_) | ClaimKind::Joint(..)
+    ) {
+        if c.profile.is_some() {
+            return Err(ck.error(
+                &format!("{path}.profile"),
+                "`profile` goes with `series` only",
+            ));
+        }
         if c.reference.is_some() {
             return Err(ck.error(
                 &format!("{path}.reference"),
@@ -739,6 +764,12 @@ fn reference(
                 return Err(ck.error(&format!("{rp}.normal.sd"), format!("must be > 0, got {s}")));
             }
             ReferenceSpec::Normal(m, s)
+        }
+        RawReference::SpeedProcessPair => {
+            return Err(ck.error(
+                &format!("{rp}.speed-process-pair"),
+                "`speed-process-pair` is a joint law: it goes with `joint`",
+            ))
         }
         RawReference::TracyWidomGue => ReferenceSpec::TracyWidomGue,
         RawReference::TracyWidomGoe => ReferenceSpec::TracyWidomGoe,

@@ -140,6 +140,7 @@ pub fn same_law(id: &str, rejected: bool, alpha: f64) -> ClaimResult {
                 Moments { label: "".into(), count: 20000, mean: 2.4, sd: 1.21 },
                 Moments { label: "transposed-occupation".into(), count: 20000, mean: 2.39, sd: 1.22 },
             ],
+            ..Estimates::default()
         },
     }
 }
