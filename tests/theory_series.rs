@@ -85,6 +85,15 @@ fn speed_process_pair_shows_the_approach() {
         assert!(f(&x["lower"]) < SpeedProcessPair::P_SWAPPED_OR_TIED, "{x}");
         assert!((f(&x["predicted"]) - 0.6667).abs() < 1e-12);
     }
+    // Still in the initial order at t = 1 − swapped by t (a swap is final), so the `<` share of the
+    // joint laws at t = 25, 100, 400 falls along t, pathwise, towards the limit 1/3.
+    let in_order: Vec<f64> = ["joint-at-25", "joint-at-100", "joint-at-400"]
+        .iter()
+        .map(|id| f(&claim(&v, id)["estimates"]["joint"]["regions"][0]["estimate"]["estimate"]))
+        .collect();
+    for (k, q) in in_order.iter().enumerate() {
+        assert!((q + p[k] - 1.0).abs() < 1e-12, "{in_order:?} vs {p:?}");
+    }
     let j = &claim(&v, "joint-at-400")["estimates"]["joint"];
     let regions = j["regions"].as_array().unwrap();
     let share = |k: usize| f(&regions[k]["estimate"]["estimate"]);
