@@ -124,18 +124,34 @@ pub(crate) fn draw_claim(
                 },
                 ..r.clone()
             });
+        // A tail-from-profile claim draws P(X ≥ x) (its label says so), not a CDF.
+        let tail = ecdf.iter().any(|e| e.label.ends_with(" ≥ x)"));
+        let what = if tail {
+            "tail P(X ≥ x)"
+        } else {
+            "empirical CDF"
+        };
         let title = match &reference {
-            Some(_) => format!("{}: empirical CDF against the reference", claim.id),
-            None => format!("{}: empirical CDF", claim.id),
+            Some(_) => format!("{}: {what} against the reference", claim.id),
+            None => format!("{}: {what}", claim.id),
         };
         let caption = format!(
-            "Empirical distribution function of each side (steps) with its {level}% confidence band (shaded){}.",
-            if reference.is_some() { "; dashed grey: the reference curve" } else { "" }
+            "{} of each side (steps) with its {level}% confidence band (shaded){}.",
+            if tail {
+                "Tail probability P(X ≥ x)"
+            } else {
+                "Empirical distribution function"
+            },
+            if reference.is_some() {
+                "; dashed grey: the reference curve"
+            } else {
+                ""
+            }
         );
         let spec = ChartSpec {
             title: title.clone(),
             x_desc: "value x".into(),
-            y_desc: "P(X ≤ x)".into(),
+            y_desc: if tail { "P(X ≥ x)" } else { "P(X ≤ x)" }.into(),
             y_range: Some((-0.02, 1.02)),
             legend: SeriesLabelPosition::LowerRight,
             categories: None,

@@ -339,6 +339,12 @@ pub fn reference_cdf(r: &ReferenceSpec) -> Option<Box<dyn Fn(f64) -> f64>> {
             let tw = motley_reference::TracyWidom::goe();
             Some(Box::new(move |x| tw.cdf(x)))
         }
+        ReferenceSpec::SixVertexExitSpeed(kappa) => {
+            let law = motley_reference::SixVertexStep::from_kappa(kappa).ok()?;
+            Some(Box::new(move |x| {
+                1.0 - law.exit_speed_tail(x).unwrap_or(0.0)
+            }))
+        }
         ReferenceSpec::TailFromProfile(_) => None,
     }
 }
@@ -350,6 +356,7 @@ pub(crate) fn reference_name(r: &ReferenceSpec) -> String {
         ReferenceSpec::TailFromProfile(_) => "tail from the profile".into(),
         ReferenceSpec::TracyWidomGue => "Tracy–Widom GUE".into(),
         ReferenceSpec::TracyWidomGoe => "Tracy–Widom GOE".into(),
+        ReferenceSpec::SixVertexExitSpeed(k) => format!("six-vertex exit speed (κ = {k:.4})"),
     }
 }
 

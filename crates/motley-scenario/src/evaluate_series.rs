@@ -23,6 +23,7 @@ pub fn reference_moments(r: &ReferenceSpec) -> Option<(f64, f64)> {
         // F₂ and F₁ below −12 are under 1e-100 and above 10 within 1e-20 of 1 (both tails
         // decay like exp(−c|s|^(3/2)) or faster; Tracy and Widom 1994, 1996).
         ReferenceSpec::TracyWidomGue | ReferenceSpec::TracyWidomGoe => (-12.0, 10.0),
+        ReferenceSpec::SixVertexExitSpeed(k) => (1.0 / k, k),
         ReferenceSpec::TailFromProfile(_) => return None,
     };
     let n = 4000;

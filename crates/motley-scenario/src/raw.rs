@@ -459,6 +459,18 @@ pub enum RawReference {
     SecondClassSpeed(RawRates),
     /// The joint law of the TASEP speed process at the particles started at 0 and 1 (`joint` only).
     SpeedProcessPair,
+    /// The limiting exit speed X/y of the six-vertex second-class path under the step boundary.
+    SixVertexExitSpeed(RawWeights),
+}
+
+/// `six-vertex-exit-speed:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawWeights {
+    /// Straight-on probability of the stronger path from below.
+    pub b1: f64,
+    /// Straight-on probability of the stronger path from the left.
+    pub b2: f64,
 }
 
 /// `second-class-speed:` keys.

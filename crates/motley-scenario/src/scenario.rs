@@ -293,6 +293,9 @@ pub enum ReferenceSpec {
     TracyWidomGue,
     /// Tracy–Widom GOE (F₁).
     TracyWidomGoe,
+    /// Exit speed of the six-vertex second-class path: P(v > s) = (κ − √(κs))/(κ − 1) on
+    /// [1/κ, κ], κ > 1.
+    SixVertexExitSpeed(f64),
 }
 
 /// What a claim says.

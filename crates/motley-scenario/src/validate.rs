@@ -771,6 +771,20 @@ fn reference(
                 "`speed-process-pair` is a joint law: it goes with `joint`",
             ))
         }
+        RawReference::SixVertexExitSpeed(w) => {
+            let k = format!("{rp}.six-vertex-exit-speed");
+            let b1 = ck.finite(&format!("{k}.b1"), w.b1)?;
+            let b2 = ck.finite(&format!("{k}.b2"), w.b2)?;
+            if !(0.0..1.0).contains(&b1) || !(0.0..1.0).contains(&b2) || b1 >= b2 {
+                return Err(ck.error(
+                    &k,
+                    format!(
+                        "needs 0 ≤ b1 < b2 < 1 (a curved region, κ > 1), got b1 = {b1}, b2 = {b2}"
+                    ),
+                ));
+            }
+            ReferenceSpec::SixVertexExitSpeed((1.0 - b1) / (1.0 - b2))
+        }
         RawReference::TracyWidomGue => ReferenceSpec::TracyWidomGue,
         RawReference::TracyWidomGoe => ReferenceSpec::TracyWidomGoe,
         RawReference::SecondClassSpeed(r) => {
