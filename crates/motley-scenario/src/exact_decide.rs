@@ -232,6 +232,28 @@ fn scalar_cells(cells: &[(Key, f64)]) -> Vec<(f64, f64)> {
     cells.iter().map(|(k, p)| (decode(k[0]), *p)).collect()
 }
 
+/// The exact probability of an event observable (outcome `[1]`), recorded in `est` as a
+/// degenerate interval; returns it.
+fn exact_event(l: &ObsLaw, label: String, est: &mut Estimates) -> f64 {
+    let p: f64 = l
+        .cells
+        .iter()
+        .filter(|(k, _)| k.first() == Some(&1))
+        .map(|(_, p)| p)
+        .sum();
+    est.probabilities.push(Interval {
+        label,
+        successes: 0,
+        trials: 0,
+        estimate: p,
+        wilson_lower: p,
+        wilson_upper: p,
+        exact_lower: p,
+        exact_upper: p,
+    });
+    p
+}
+
 /// Decides claim `ci` exactly.
 ///
 /// # Errors
@@ -268,22 +290,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }
         ClaimKind::Probability(a, eq) => {
             let l = observable_law(s, *a)?;
-            let p: f64 = l
-                .cells
-                .iter()
-                .filter(|(k, _)| k.first() == Some(&1))
-                .map(|(_, p)| p)
-                .sum();
-            est.probabilities.push(Interval {
-                label: name(*a),
-                successes: 0,
-                trials: 0,
-                estimate: p,
-                wilson_lower: p,
-                wilson_upper: p,
-                exact_lower: p,
-                exact_upper: p,
-            });
+            let p = exact_event(&l, name(*a), &mut est);
             let d = eq.map(|v| (p - v).abs());
             (
                 "probability",
@@ -368,22 +375,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 });
             }
             if kind == ValueKind::Event {
-                let p: f64 = l
-                    .cells
-                    .iter()
-                    .filter(|(k, _)| k.first() == Some(&1))
-                    .map(|(_, p)| p)
-                    .sum();
-                est.probabilities.push(Interval {
-                    label: name(*a),
-                    successes: 0,
-                    trials: 0,
-                    estimate: p,
-                    wilson_lower: p,
-                    wilson_upper: p,
-                    exact_lower: p,
-                    exact_upper: p,
-                });
+                exact_event(&l, name(*a), &mut est);
             }
             (
                 "describe",
