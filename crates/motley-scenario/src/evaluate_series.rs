@@ -1,7 +1,7 @@
 //! Estimates of the `series` and `joint` claims: nothing is tested, the theory is drawn beside.
 
 use motley_reference::SpeedProcessPair;
-use motley_stats::normal_upper_quantile;
+use motley_stats::{ks_one_sample, normal_upper_quantile, KsMethod, ScalarSample};
 
 use crate::accumulate::{Accumulator, PairValues};
 use crate::estimate::{dkw, ecdf_series, interval, moments};
@@ -76,7 +76,7 @@ pub fn series(s: &Scenario, sr: &SeriesSpec, accs: &[&Accumulator], est: &mut Es
                 } else {
                     f64::INFINITY
                 };
-                let distance = cdf.as_ref().map(|f| kolmogorov(&x.values, f));
+                let distance = cdf.as_ref().and_then(|f| kolmogorov(&x.values, f));
                 if sr.reference.is_some() && !x.values.is_empty() {
                     est.ecdf.push(ecdf_series(&label, &x.values, s.alpha));
                 }
@@ -134,23 +134,12 @@ pub fn series(s: &Scenario, sr: &SeriesSpec, accs: &[&Accumulator], est: &mut Es
     }
 }
 
-/// Kolmogorov distance of sorted values to a continuous CDF (both one-sided limits at each atom).
-fn kolmogorov(sorted: &[f64], f: &dyn Fn(f64) -> f64) -> f64 {
-    let n = sorted.len() as f64;
-    let mut d: f64 = 0.0;
-    let mut i = 0;
-    while i < sorted.len() {
-        let mut j = i;
-        while j < sorted.len() && sorted[j] == sorted[i] {
-            j += 1;
-        }
-        let fx = f(sorted[i]);
-        d = d
-            .max((fx - i as f64 / n).abs())
-            .max((j as f64 / n - fx).abs());
-        i = j;
-    }
-    d
+/// Kolmogorov distance of the values to a continuous CDF (`motley-stats`' one-sample statistic).
+fn kolmogorov(values: &[f64], f: &dyn Fn(f64) -> f64) -> Option<f64> {
+    let sample = ScalarSample::from_values(values.to_vec()).ok()?;
+    ks_one_sample(&sample, f, KsMethod::Auto)
+        .ok()
+        .map(|r| r.statistic)
 }
 
 /// The reference CDF on 200 points over `[lo, hi]`.
