@@ -67,7 +67,7 @@ pub fn threads(asked: Option<usize>) -> Result<usize, Failure> {
             "--threads must be at most 1024, got {n}"
         ))),
         Some(n) => Ok(n),
-        None => Ok(num_cpus::get().max(1)),
+        None => Ok(std::thread::available_parallelism().map_or(1, |n| n.get())),
     }
 }
 

@@ -8,7 +8,7 @@ use std::time::Instant;
 use motley_report::{write_json_atomic, write_report, Picture, ReportExtras};
 use motley_scenario::finish::finish;
 use motley_scenario::plan::plan;
-use motley_scenario::run::{advance, Partial, Shard, PARTIAL_SCHEMA};
+use motley_scenario::run::{advance, Partial, Shard, Workers, PARTIAL_SCHEMA};
 use motley_scenario::Scenario;
 
 use crate::cli::RunArgs;
@@ -271,13 +271,14 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
     let bar = Progress::start(counter.clone(), total, a.quiet);
     let mut last = Instant::now();
     let step = ((end - start) / 50).max(motley_scenario::run::CHUNK * 8 * threads as u64);
+    let workers = Workers::new(threads).map_err(|e| Failure::Runtime(e.to_string()))?;
     loop {
         let before = partial.done;
         let complete = advance(
             s,
             &p,
             &mut partial,
-            threads,
+            &workers,
             &AtomicU64::new(0),
             &stop,
             Some(step),

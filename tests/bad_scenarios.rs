@@ -2,12 +2,10 @@
 //! the exact first line listed in `tests/bad_scenarios/expected.txt`, and nothing panics. Also an
 //! unreadable path and an existing report folder.
 
-mod common;
-
 use std::path::PathBuf;
 use std::process::Output;
 
-use common::*;
+use crate::common::*;
 
 fn corpus() -> PathBuf {
     root().join("tests").join("bad_scenarios")

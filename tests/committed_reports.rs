@@ -2,11 +2,10 @@
 //! own `scenario.yaml` with its recorded sample count gives the same `result.json` (timing fields and
 //! the build's commit aside). `scripts/regenerate-reports.sh` rewrites them.
 
-mod common;
-
-use common::*;
+use crate::common::*;
 
 #[test]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn regenerating_the_reports_gives_the_same_results() {
     let d = tempfile::tempdir().unwrap();
     let mut n = 0;

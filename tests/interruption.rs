@@ -1,11 +1,9 @@
 //! Killed runs leave nothing under the report's name; a terminated run resumes to the same result.
 
-mod common;
-
 use std::process::{Command, Stdio};
 use std::time::Duration;
 
-use common::*;
+use crate::common::*;
 
 /// About 5 s of work on one thread of the project's machine, so a signal sent after 1.5 s lands
 /// mid-run (the test asserts that it did: exit code 130).

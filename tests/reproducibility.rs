@@ -1,10 +1,8 @@
 //! Same scenario and seed, same result: whatever the thread count, shard split or interruption.
 
-mod common;
-
 use std::process::Command;
 
-use common::*;
+use crate::common::*;
 
 /// A mixed scenario (six-vertex and exclusion, sets, numbers and events) small enough to run fast.
 const SCENARIO: &str = "

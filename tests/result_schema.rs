@@ -1,12 +1,10 @@
 //! Every result motley writes validates against `docs/result.schema.json`; so do the committed
 //! reports. A deliberately broken result does not.
 
-mod common;
-
 #[path = "common/schema.rs"]
 mod schema;
 
-use common::*;
+use crate::common::*;
 
 fn schema() -> serde_json::Value {
     serde_json::from_str(&std::fs::read_to_string(root().join("docs/result.schema.json")).unwrap())

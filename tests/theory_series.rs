@@ -2,9 +2,7 @@
 //! the profile's values are the limit shape's, the approach to the limits goes the right way, and
 //! the joint law's reference cells are the speed-process law's.
 
-mod common;
-
-use common::*;
+use crate::common::*;
 use motley_reference::{SixVertexStep, SpeedProcessPair};
 use serde_json::Value;
 

@@ -4,9 +4,7 @@
 //! verdict is a test at α = 0.01 with a fixed seed, so the outcome is deterministic; a true claim
 //! would be rejected by chance for 1% of seeds. Describe-only scenarios run with fewer samples.
 
-mod common;
-
-use common::*;
+use crate::common::*;
 
 fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
     let dir = tempfile::tempdir().unwrap();

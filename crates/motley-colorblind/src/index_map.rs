@@ -19,15 +19,9 @@ impl IndexMap {
     /// # Errors
     /// [`ColorblindError::ElementOutside`] if an image falls outside `{1, …, universe}`.
     pub fn apply(&self, set: &ElementSet, universe: usize) -> Result<ElementSet, ColorblindError> {
-        let n = set.universe() as i64;
         let mut out = ElementSet::empty(universe);
         for k in set.iter() {
-            let k = k as i64;
-            let image = match *self {
-                IndexMap::Identity => k,
-                IndexMap::Reflection => n + 1 - k,
-                IndexMap::Shift(s) => k + s,
-            };
+            let image = self.image(k, set.universe());
             if image < 1 || image > universe as i64 {
                 return Err(ColorblindError::ElementOutside {
                     element: image,
@@ -37,6 +31,35 @@ impl IndexMap {
             out.insert(image as usize)?;
         }
         Ok(out)
+    }
+
+    /// The image of element `k` of a subset of `{1, …, n}` (it may fall outside any universe).
+    pub fn image(&self, k: usize, n: usize) -> i64 {
+        let k = k as i64;
+        match *self {
+            IndexMap::Identity => k,
+            IndexMap::Reflection => n as i64 + 1 - k,
+            IndexMap::Shift(s) => k + s,
+        }
+    }
+
+    /// Maps the elements of a subset of `{1, …, n}` in place, then sorts them and drops repeats:
+    /// the allocation-free form of [`IndexMap::apply`] for hot loops, on elements that may come
+    /// unsorted and repeated (as [`crate::push_colors`] gives them).
+    ///
+    /// # Panics
+    /// In debug builds, if an image falls below 1; callers check [`IndexMap::fits`] once, before
+    /// the loop.
+    pub fn map_elements(&self, elements: &mut Vec<usize>, n: usize) {
+        if *self != IndexMap::Identity {
+            for e in elements.iter_mut() {
+                let image = self.image(*e, n);
+                debug_assert!(image >= 1, "index map sends {e} to {image}");
+                *e = image as usize;
+            }
+        }
+        elements.sort_unstable();
+        elements.dedup();
     }
 
     /// Whether every subset of `{1, …, from}` maps into `{1, …, to}`.
@@ -70,6 +93,11 @@ mod tests {
         assert!(IndexMap::Shift(-1).apply(&s, 5).is_err());
         assert!(IndexMap::Shift(4).apply(&s, 5).is_err());
         assert!(IndexMap::Shift(3).fits(2, 5) && !IndexMap::Shift(4).fits(2, 5));
+        let mut v = vec![2, 1, 2];
+        IndexMap::Reflection.map_elements(&mut v, 5);
+        assert_eq!(v, vec![4, 5]);
+        IndexMap::Shift(-3).map_elements(&mut v, 5);
+        assert_eq!(v, vec![1, 2]);
     }
 
     proptest! {

@@ -51,7 +51,7 @@ mod summary;
 pub use element_set::ElementSet;
 pub use error::ColorblindError;
 pub use index_map::IndexMap;
-pub use observe::{colors_present, occupied_positions};
+pub use observe::{colors_present, occupied_positions, push_colors, push_positions_at_least};
 pub use projection::Projection;
 pub use relabel::Relabel;
 pub use summary::{Summary, SummaryKind};

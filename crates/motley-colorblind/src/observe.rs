@@ -8,23 +8,38 @@ use crate::{Color, ColorblindError, ElementSet};
 /// # Errors
 /// [`ColorblindError::ElementOutside`] if a color exceeds `max_color`.
 pub fn colors_present(window: &[Color], max_color: u32) -> Result<ElementSet, ColorblindError> {
-    ElementSet::from_elements(
-        max_color as usize,
-        window.iter().filter(|&&c| c != 0).map(|&c| c as usize),
-    )
+    let mut colors = Vec::new();
+    push_colors(window, |c| c as usize, &mut colors);
+    ElementSet::from_elements(max_color as usize, colors)
 }
 
 /// The set of positions `k ∈ {1, …, window.len()}` whose color is nonzero (position 1 is
 /// `window[0]`).
 pub fn occupied_positions(window: &[Color]) -> ElementSet {
-    let mut set = ElementSet::empty(window.len());
-    for (i, &c) in window.iter().enumerate() {
-        if c != 0 {
-            // Always inside the universe: 1 ≤ i + 1 ≤ len.
-            let _ = set.insert(i + 1);
-        }
-    }
-    set
+    let mut positions = Vec::new();
+    push_positions_at_least(window, 1, &mut positions);
+    // Always inside the universe: 1 ≤ k ≤ len.
+    ElementSet::from_elements(window.len(), positions).expect("positions lie in the window")
+}
+
+/// Appends the nonzero colors of `window` to `out`, each written as `name(color)`, in window order
+/// (repeats kept): the allocation-free form of [`colors_present`], for hot loops that reuse `out`.
+pub fn push_colors(window: &[Color], name: impl Fn(Color) -> usize, out: &mut Vec<usize>) {
+    out.extend(window.iter().filter(|&&c| c != 0).map(|&c| name(c)));
+}
+
+/// Appends the positions `k ∈ {1, …, window.len()}` whose color is at least `threshold` (taken as
+/// 1 when 0) to `out`, increasing: the allocation-free form of [`occupied_positions`] and of a
+/// threshold projection followed by it.
+pub fn push_positions_at_least(window: &[Color], threshold: Color, out: &mut Vec<usize>) {
+    let t = threshold.max(1);
+    out.extend(
+        window
+            .iter()
+            .enumerate()
+            .filter(|(_, &c)| c >= t)
+            .map(|(i, _)| i + 1),
+    );
 }
 
 #[cfg(test)]
@@ -38,5 +53,11 @@ mod tests {
         assert!(colors_present(&w, 4).is_err());
         assert_eq!(occupied_positions(&w).elements(), vec![1, 3, 4]);
         assert_eq!(occupied_positions(&[]).universe(), 0);
+        let mut out = vec![9];
+        push_positions_at_least(&w, 3, &mut out);
+        assert_eq!(out, vec![9, 4]);
+        out.clear();
+        push_colors(&w, |c| 10 - c as usize, &mut out);
+        assert_eq!(out, vec![8, 8, 5]);
     }
 }

@@ -18,13 +18,19 @@ pub struct Summary {
 impl Summary {
     /// Summarises `set`.
     pub fn of(set: &ElementSet) -> Self {
+        Self::of_increasing(set.iter())
+    }
+
+    /// Summarises a set given by its elements in increasing order (as [`ElementSet::iter`] and
+    /// [`crate::IndexMap::map_elements`] give them).
+    pub fn of_increasing(elements: impl IntoIterator<Item = usize>) -> Self {
         let mut s = Summary {
             size: 0,
             min: None,
             max: None,
             sum: 0,
         };
-        for e in set.iter() {
+        for e in elements {
             s.size += 1;
             s.min.get_or_insert(e);
             s.max = Some(e);
@@ -87,6 +93,7 @@ mod tests {
         let s = ElementSet::from_elements(9, [7, 2, 4]).unwrap();
         let m = Summary::of(&s);
         assert_eq!((m.size, m.min, m.max, m.sum), (3, Some(2), Some(7), 13));
+        assert_eq!(Summary::of_increasing([2, 4, 7]), m);
         let e = ElementSet::empty(3);
         assert_eq!(SummaryKind::Min.of(&e), None);
         assert_eq!(SummaryKind::Size.of(&e), Some(0));

@@ -4,7 +4,7 @@
 //! The exact law comes from `ExactSolver` (uniformization of the generator), which enumerates
 //! arrangements and rates directly and shares no code with the samplers' event loops.
 
-mod common;
+use crate::common;
 
 use std::collections::BTreeMap;
 

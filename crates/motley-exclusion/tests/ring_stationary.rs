@@ -9,7 +9,7 @@
 //! The exact solver computes them independently (power iteration on the enumerated generator), and
 //! a Monte Carlo run recovers them.
 
-mod common;
+use crate::common;
 
 use motley_exclusion::{
     total_variation, ExactSolver, FiniteProcess, FiniteSystem, Rates, DEFAULT_TAIL,

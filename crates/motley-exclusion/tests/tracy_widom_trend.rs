@@ -85,6 +85,7 @@ fn kolmogorov(sample: &[f64], offset: f64) -> f64 {
 }
 
 #[test]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn scaled_count_approaches_tracy_widom() {
     let chi = samples();
     let se = |v: &[f64]| (variance(v) / v.len() as f64).sqrt();

@@ -31,7 +31,6 @@ use crate::tasep_step::TasepStep;
 /// assert!((f.scaled(250.0 - 3.968_502_629_920_499, 1000.0) - 1.0).abs() < 1e-12);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct TasepStepFluctuation {
     model: TasepStep,
     xi: f64,
@@ -83,7 +82,6 @@ impl TasepStepFluctuation {
 /// assert!(SixVertexFluctuation::new(m, 0.5, 1.0).is_err()); // x < y/κ: flat region
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct SixVertexFluctuation {
     h: f64,
     sigma: f64,

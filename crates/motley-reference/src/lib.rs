@@ -5,7 +5,7 @@
 //!
 //! # Examples
 //! ```
-//! use motley_reference::{law_by_name, SixVertexFluctuation, SixVertexStep, TasepStepFluctuation,
+//! use motley_reference::{second_class_speed_half_width, SixVertexFluctuation, SixVertexStep, TasepStepFluctuation,
 //!     TasepStep, TracyWidom};
 //!
 //! // Scale a TASEP particle count at t = 1000 and evaluate F₂ there.
@@ -26,9 +26,8 @@
 //! let point = SixVertexFluctuation::new(model, 1.0, 1.0).unwrap();
 //! assert!(point.sigma() > 0.0);
 //!
-//! // Laws by their scenario names.
-//! let law = law_by_name("second-class-speed").unwrap();
-//! assert_eq!(law.cdf(0.0), 0.5);
+//! // The second-class particle of ASEP from step data moves at a speed uniform on [−(p − q), p − q].
+//! assert_eq!(second_class_speed_half_width(1.0, 0.25).unwrap(), 0.75);
 //! ```
 //!
 //! # Errors
@@ -58,7 +57,6 @@ mod error;
 mod fredholm;
 mod gauss_legendre;
 mod kpz_scaling;
-mod registry;
 mod second_class;
 mod six_vertex_step;
 mod speed_process;
@@ -69,10 +67,6 @@ pub use airy::{airy, AI_0, AI_PRIME_0};
 pub use error::ReferenceError;
 pub use gauss_legendre::GaussLegendre;
 pub use kpz_scaling::{SixVertexFluctuation, TasepStepFluctuation};
-pub use registry::{
-    law_by_name, profile_by_name, ProfileKind, ReferenceLaw, ReferenceProfile, LAW_NAMES,
-    PROFILE_NAMES,
-};
 pub use second_class::{
     asep_collision_probability, second_class_speed_half_width, TASEP_SWAP_PROBABILITY,
 };

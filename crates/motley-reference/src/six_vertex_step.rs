@@ -45,7 +45,6 @@ use crate::error::ReferenceError;
 /// assert!(m.is_curved(1.0, 1.0));
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct SixVertexStep {
     pub(crate) kappa: f64,
 }

@@ -30,7 +30,6 @@
 /// assert!((SpeedProcessPair::P_SWAPPED_OR_TIED - 2.0 / 3.0).abs() < 1e-15);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct SpeedProcessPair;
 
 impl SpeedProcessPair {

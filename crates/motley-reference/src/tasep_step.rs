@@ -30,7 +30,6 @@ use crate::error::ReferenceError;
 /// assert_eq!(asep.particles_right_of(0.0, 100.0), 12.5);
 /// ```
 #[derive(Debug, Clone, Copy, PartialEq)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub struct TasepStep {
     speed: f64,
 }

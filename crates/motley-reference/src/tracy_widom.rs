@@ -34,7 +34,6 @@ use crate::gauss_legendre::GaussLegendre;
 
 /// Which Tracy–Widom law.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
-#[cfg_attr(feature = "serde", derive(serde::Serialize, serde::Deserialize))]
 pub enum TracyWidomKind {
     /// β = 2, F₂: largest eigenvalue of GUE; TASEP step and six-vertex step fluctuations.
     Gue,

@@ -1,7 +1,7 @@
 //! The figures: which files each claim gets, and that every SVG is well-formed with titles, axis
 //! labels and legends.
 
-mod common;
+use crate::common;
 
 use std::fs;
 

@@ -1,7 +1,7 @@
 //! The report folder as a whole: its files, atomic appearance, refusal to overwrite, safe replacement,
 //! and recovery from a killed run.
 
-mod common;
+use crate::common;
 
 use std::fs;
 use std::path::Path;
@@ -213,7 +213,7 @@ fn kill_midway_leaves_no_half_written_report() {
         let mut child = Command::new(&exe)
             .args([
                 "--exact",
-                "child_writes_reports_forever",
+                "report_folder::child_writes_reports_forever",
                 "--ignored",
                 "--nocapture",
                 "--test-threads=1",

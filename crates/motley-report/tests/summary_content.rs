@@ -1,7 +1,7 @@
 //! The summary a person reads first: verdict lines, test tables with Holm-adjusted p-values, effect
 //! sizes, estimates, figure links and the reproduce section, for a hand-built result.
 
-mod common;
+use crate::common;
 
 use std::fs;
 use std::path::Path;

@@ -10,6 +10,7 @@
 
 use std::collections::BTreeMap;
 
+use motley_colorblind::Summary;
 use serde::{Deserialize, Serialize};
 
 use crate::scenario::ValueKind;
@@ -193,10 +194,8 @@ impl Accumulator {
         let Accumulator::Set(s) = self else { return };
         s.n += 1;
         let mut mask: Mask = [0, 0];
-        let mut sum = 0u64;
         for &k in elements {
             s.inclusion[k - 1] += 1;
-            sum += k as u64;
             if k <= JOINT_LIMIT {
                 mask_insert(&mut mask, k);
             }
@@ -204,12 +203,13 @@ impl Accumulator {
         if let Some(j) = &mut s.joint {
             *j.entry(mask).or_insert(0) += 1;
         }
-        let min = elements.first().map_or(EMPTY_SUMMARY, |&m| m as u64);
-        let max = elements.last().map_or(EMPTY_SUMMARY, |&m| m as u64);
+        let summary = Summary::of_increasing(elements.iter().copied());
+        let min = summary.min.map_or(EMPTY_SUMMARY, |m| m as u64);
+        let max = summary.max.map_or(EMPTY_SUMMARY, |m| m as u64);
         for (h, v) in s
             .summaries
             .iter_mut()
-            .zip([elements.len() as u64, min, max, sum])
+            .zip([summary.size as u64, min, max, summary.sum])
         {
             *h.entry(v).or_insert(0) += 1;
         }

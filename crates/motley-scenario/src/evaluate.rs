@@ -18,30 +18,18 @@
 use std::collections::BTreeMap;
 
 use motley_stats::{
-    chi_square_homogeneity, detectable_probability_gap, detectable_total_variation,
-    holm_bonferroni, kolmogorov_sf, ks_one_sample, ks_two_sample, ks_two_sample_counts,
-    normal_upper_quantile, total_variation, two_proportion_p_value, CategoricalCounts,
-    ChiSquareOptions, KsMethod, ScalarSample,
+    chi_square_homogeneity, compare_inclusion, detectable_probability_gap,
+    detectable_total_variation, holm_bonferroni, kolmogorov_quantile, ks_one_sample, ks_two_sample,
+    ks_two_sample_counts, normal_upper_quantile, total_variation, two_proportion_p_value,
+    CategoricalCounts, ChiSquareOptions, ElementComparison, InclusionCounts, KsMethod,
+    ScalarSample,
 };
 
 use crate::accumulate::{mask_elements, Accumulator, SetCounts, EMPTY_SUMMARY};
 use crate::estimate::*;
+use crate::reference_law::{reference_cdf, reference_name};
 use crate::result::{ClaimResult, Effect, Estimates, Series, Stated, TestResult};
 use crate::scenario::{ClaimKind, ClaimSpec, ReadSpec, ReferenceSpec, Scenario};
-
-/// Upper `1 − alpha` quantile of the Kolmogorov distribution, by bisection on its survival function.
-pub fn kolmogorov_quantile(alpha: f64) -> f64 {
-    let (mut lo, mut hi) = (0.2, 5.0);
-    for _ in 0..100 {
-        let mid = 0.5 * (lo + hi);
-        if kolmogorov_sf(mid) > alpha {
-            lo = mid;
-        } else {
-            hi = mid;
-        }
-    }
-    0.5 * (lo + hi)
-}
 
 struct Family {
     tests: Vec<TestResult>,
@@ -98,6 +86,38 @@ fn hist_counts(h: &BTreeMap<u64, u64>) -> CategoricalCounts<u64> {
 
 const SUMMARY_NAMES: [&str; 4] = ["size", "min", "max", "sum"];
 
+/// Chi-square on the joint law of two categorical samples of sizes `na` and `nb`, with their total
+/// variation as the effect: the decision for sets and sequences alike.
+fn same_law_categorical<K: Ord + Clone + std::hash::Hash>(
+    s: &Scenario,
+    (ca, na): (&CategoricalCounts<K>, u64),
+    (cb, nb): (&CategoricalCounts<K>, u64),
+    fam: &mut Family,
+) -> Option<Effect> {
+    let r = chi_square_homogeneity(ca, cb, &ChiSquareOptions::default()).ok()?;
+    fam.push(
+        "chi-square on the joint law",
+        r.statistic,
+        Some(r.dof as f64),
+        r.p_value,
+        format!(
+            "{} outcomes seen; {} rare ones pooled into one cell (expected count < 5, common practice); {} cells compared",
+            r.cells, r.pooled_cells, r.tested_cells
+        ),
+    );
+    let tv = total_variation(ca, cb, s.alpha).ok()?;
+    let detect = detectable_total_variation(na, nb, r.tested_cells.max(2), s.alpha, s.power)
+        .ok()
+        .flatten()
+        .unwrap_or(1.0);
+    Some(Effect {
+        measure: "total variation".into(),
+        estimate: tv.estimate,
+        upper_bound: tv.upper_bound,
+        detectable: detect,
+    })
+}
+
 fn same_law_sets(
     s: &Scenario,
     names: [&str; 2],
@@ -109,73 +129,49 @@ fn same_law_sets(
     let alpha = s.alpha;
     let mut effect = None;
     if let (Some(ca), Some(cb)) = (set_counts(a), set_counts(b)) {
-        if let Ok(r) = chi_square_homogeneity(&ca, &cb, &ChiSquareOptions::default()) {
+        effect = same_law_categorical(s, (&ca, a.n), (&cb, b.n), fam);
+        for c in [a, b] {
+            if let Some(j) = &c.joint {
+                est.top_outcomes
+                    .push(top_outcomes(j, c.n, 20, |m| show_set(&mask_elements(m))));
+            }
+        }
+    }
+    // Per-element inclusion, Holm across the elements whose inclusion varies.
+    let universe = a.universe.max(b.universe);
+    let inclusion = |c: &SetCounts| InclusionCounts::from_counts(c.n, c.inclusion.clone());
+    let cmp = match (inclusion(a), inclusion(b)) {
+        (Ok(ia), Ok(ib)) => compare_inclusion(&ia, &ib).ok(),
+        _ => None,
+    };
+    if let Some(cmp) = cmp {
+        let largest = |key: fn(&ElementComparison) -> f64| {
+            cmp.elements
+                .iter()
+                .fold(None, |best: Option<&ElementComparison>, e| match best {
+                    Some(b) if key(b) >= key(e) => Some(b),
+                    _ => Some(e),
+                })
+        };
+        let (gap, gap_at) =
+            largest(|e| e.difference.abs()).map_or((0.0, 0), |e| (e.difference.abs(), e.element));
+        let min_at = largest(|e| -e.adjusted_p_value).map_or(0, |e| e.element);
+        if universe > 0 {
             fam.push(
-                "chi-square on the joint law",
-                r.statistic,
-                Some(r.dof as f64),
-                r.p_value,
+                "per-element inclusion (two-proportion, Holm across elements)",
+                gap,
+                None,
+                cmp.min_adjusted_p_value,
                 format!(
-                    "{} outcomes seen; {} rare ones pooled into one cell (expected count < 5, common practice); {} cells compared",
-                    r.cells, r.pooled_cells, r.tested_cells
+                    "statistic: largest gap in inclusion frequency (element {}); p-value: smallest Holm-adjusted over the {} of {} elements whose inclusion varies (element {})",
+                    gap_at + 1,
+                    cmp.tested,
+                    universe,
+                    min_at + 1
                 ),
             );
-            if let Ok(tv) = total_variation(&ca, &cb, alpha) {
-                let detect =
-                    detectable_total_variation(a.n, b.n, r.tested_cells.max(2), alpha, s.power)
-                        .ok()
-                        .flatten()
-                        .unwrap_or(1.0);
-                effect = Some(Effect {
-                    measure: "total variation".into(),
-                    estimate: tv.estimate,
-                    upper_bound: tv.upper_bound,
-                    detectable: detect,
-                });
-            }
         }
-        for (side, (c, n)) in [(&a.joint, a.n), (&b.joint, b.n)].into_iter().enumerate() {
-            if let Some(c) = c {
-                est.top_outcomes
-                    .push(top_outcomes(c, n, 20, |m| show_set(&mask_elements(m))));
-            }
-            let _ = side;
-        }
-    }
-    // Per-element inclusion, Holm across elements.
-    let universe = a.universe.max(b.universe);
-    let mut p = Vec::new();
-    let mut worst = (0.0f64, 0usize);
-    for k in 0..universe {
-        let xa = a.inclusion.get(k).copied().unwrap_or(0);
-        let xb = b.inclusion.get(k).copied().unwrap_or(0);
-        let (pv, _) = two_proportion_p_value(xa, a.n, xb, b.n);
-        p.push(pv);
-        let gap = (xa as f64 / a.n as f64 - xb as f64 / b.n as f64).abs();
-        if gap > worst.0 {
-            worst = (gap, k + 1);
-        }
-    }
-    if !p.is_empty() {
-        let adj = holm_bonferroni(&p).unwrap_or_else(|_| p.clone());
-        let (i, min) =
-            adj.iter().enumerate().fold(
-                (0, 1.0f64),
-                |acc, (i, &v)| if v < acc.1 { (i, v) } else { acc },
-            );
-        fam.push(
-            "per-element inclusion (two-proportion, Holm across elements)",
-            worst.0,
-            None,
-            min,
-            format!(
-                "statistic: largest gap in inclusion frequency (element {}); p-value: smallest Holm-adjusted over {} elements (element {})",
-                worst.1,
-                universe,
-                i + 1
-            ),
-        );
-        if effect.is_none() {
+        if effect.is_none() && universe > 0 {
             let pbar = 0.5;
             let detect =
                 detectable_probability_gap(a.n, b.n, pbar, alpha / universe as f64, s.power)
@@ -186,8 +182,8 @@ fn same_law_sets(
             let se = (0.25 / a.n as f64 + 0.25 / b.n as f64).sqrt();
             effect = Some(Effect {
                 measure: "largest per-element inclusion gap".into(),
-                estimate: worst.0,
-                upper_bound: (worst.0 + z * se).min(1.0),
+                estimate: gap,
+                upper_bound: (gap + z * se).min(1.0),
                 detectable: detect,
             });
         }
@@ -248,20 +244,19 @@ fn same_law_scalars(
     let sa = ScalarSample::from_values(a.to_vec()).ok()?;
     let sb = ScalarSample::from_values(b.to_vec()).ok()?;
     let (na, nb) = (a.len() as u64, b.len() as u64);
-    if let Ok(r) = ks_two_sample(&sa, &sb, KsMethod::Auto) {
-        let note = if r.conservative {
-            "ties in the data: KS is conservative here".to_string()
-        } else {
-            String::new()
-        };
-        fam.push(
-            "two-sample Kolmogorov–Smirnov",
-            r.statistic,
-            None,
-            r.p_value,
-            note,
-        );
-    }
+    let ks = ks_two_sample(&sa, &sb, KsMethod::Auto).ok()?;
+    let note = if ks.conservative {
+        "ties in the data: KS is conservative here".to_string()
+    } else {
+        String::new()
+    };
+    fam.push(
+        "two-sample Kolmogorov–Smirnov",
+        ks.statistic,
+        None,
+        ks.p_value,
+        note,
+    );
     if integer {
         let hist = |v: &[f64]| {
             let mut h = CategoricalCounts::new();
@@ -283,7 +278,7 @@ fn same_law_scalars(
             );
         }
     }
-    let d = ks_distance(a, b);
+    let d = ks.statistic;
     let margin = dkw_pair(na, nb, alpha);
     let scale = (1.0 / na as f64 + 1.0 / nb as f64).sqrt();
     let detect = (kolmogorov_quantile(alpha) + 0.5 * normal_upper_quantile(1.0 - s.power)) * scale;
@@ -299,65 +294,10 @@ fn same_law_scalars(
     })
 }
 
-/// `sup |F_a − F_b|` of two sorted samples.
-pub fn ks_distance(a: &[f64], b: &[f64]) -> f64 {
-    let (mut i, mut j, mut d) = (0usize, 0usize, 0.0f64);
-    let (na, nb) = (a.len() as f64, b.len() as f64);
-    while i < a.len() && j < b.len() {
-        let x = a[i].min(b[j]);
-        while i < a.len() && a[i] <= x {
-            i += 1;
-        }
-        while j < b.len() && b[j] <= x {
-            j += 1;
-        }
-        d = d.max((i as f64 / na - j as f64 / nb).abs());
-    }
-    d
-}
-
 /// Simultaneous margin for the distance of two empirical CDFs to their laws: DKW–Massart at
 /// `alpha / 2` on each side.
 fn dkw_pair(na: u64, nb: u64, alpha: f64) -> f64 {
     dkw(na, alpha / 2.0) + dkw(nb, alpha / 2.0)
-}
-
-/// The reference CDF of a continuous reference law.
-pub fn reference_cdf(r: &ReferenceSpec) -> Option<Box<dyn Fn(f64) -> f64>> {
-    match *r {
-        ReferenceSpec::Uniform(a, b) => {
-            Some(Box::new(move |x| ((x - a) / (b - a)).clamp(0.0, 1.0)))
-        }
-        ReferenceSpec::Normal(m, sd) => {
-            Some(Box::new(move |x| motley_stats::normal_sf(-(x - m) / sd)))
-        }
-        ReferenceSpec::TracyWidomGue => {
-            let tw = motley_reference::TracyWidom::gue();
-            Some(Box::new(move |x| tw.cdf(x)))
-        }
-        ReferenceSpec::TracyWidomGoe => {
-            let tw = motley_reference::TracyWidom::goe();
-            Some(Box::new(move |x| tw.cdf(x)))
-        }
-        ReferenceSpec::SixVertexExitSpeed(kappa) => {
-            let law = motley_reference::SixVertexStep::from_kappa(kappa).ok()?;
-            Some(Box::new(move |x| {
-                1.0 - law.exit_speed_tail(x).unwrap_or(0.0)
-            }))
-        }
-        ReferenceSpec::TailFromProfile(_) => None,
-    }
-}
-
-pub(crate) fn reference_name(r: &ReferenceSpec) -> String {
-    match *r {
-        ReferenceSpec::Uniform(a, b) => format!("Uniform[{a}, {b}]"),
-        ReferenceSpec::Normal(m, sd) => format!("Normal(mean {m}, sd {sd})"),
-        ReferenceSpec::TailFromProfile(_) => "tail from the profile".into(),
-        ReferenceSpec::TracyWidomGue => "Tracy–Widom GUE".into(),
-        ReferenceSpec::TracyWidomGoe => "Tracy–Widom GOE".into(),
-        ReferenceSpec::SixVertexExitSpeed(k) => format!("six-vertex exit speed (κ = {k:.4})"),
-    }
 }
 
 /// Reference curve sampled on the ECDF's abscissae.
@@ -584,32 +524,7 @@ pub fn evaluate(
                     c
                 };
                 let (ca, cb) = (to(&a.counts), to(&b.counts));
-                if let Ok(r) = chi_square_homogeneity(&ca, &cb, &ChiSquareOptions::default()) {
-                    fam.push(
-                        "chi-square on the joint law",
-                        r.statistic,
-                        Some(r.dof as f64),
-                        r.p_value,
-                        format!("{} outcomes seen; {} rare ones pooled (expected count < 5, common practice)", r.cells, r.pooled_cells),
-                    );
-                    if let Ok(tv) = total_variation(&ca, &cb, s.alpha) {
-                        effect = Some(Effect {
-                            measure: "total variation".into(),
-                            estimate: tv.estimate,
-                            upper_bound: tv.upper_bound,
-                            detectable: detectable_total_variation(
-                                a.n,
-                                b.n,
-                                r.tested_cells.max(2),
-                                s.alpha,
-                                s.power,
-                            )
-                            .ok()
-                            .flatten()
-                            .unwrap_or(1.0),
-                        });
-                    }
-                }
+                effect = same_law_categorical(s, (&ca, a.n), (&cb, b.n), &mut fam);
                 est.top_outcomes
                     .push(top_outcomes(&a.counts, a.n, 20, |k| show_sequence(k)));
                 est.top_outcomes

@@ -5,7 +5,7 @@ use motley_stats::{ks_one_sample, normal_upper_quantile, KsMethod, ScalarSample}
 
 use crate::accumulate::{Accumulator, PairValues};
 use crate::estimate::{dkw, ecdf_series, interval, moments};
-use crate::evaluate::reference_cdf;
+use crate::reference_law::{reference_cdf, reference_name};
 use crate::result::{Estimates, JointLaw, Region, SeriesPoint};
 use crate::scenario::{JointReference, ReferenceSpec, Scenario, SeriesSpec};
 
@@ -55,7 +55,7 @@ pub fn series(s: &Scenario, sr: &SeriesSpec, accs: &[&Accumulator], est: &mut Es
     est.series_theory = match (&sr.profile, sr.limit, &sr.reference) {
         (Some(p), _, _) => Some(format!("profile {}", p.name)),
         (None, Some(l), _) => Some(format!("limit {l}")),
-        (None, None, Some(r)) => Some(format!("mean of {}", crate::evaluate::reference_name(r))),
+        (None, None, Some(r)) => Some(format!("mean of {}", reference_name(r))),
         _ => None,
     };
     let ref_moments = sr.reference.as_ref().and_then(reference_moments);
@@ -155,7 +155,7 @@ fn reference_curve(r: &ReferenceSpec, lo: f64, hi: f64) -> Option<crate::result:
         .collect();
     let y: Vec<f64> = x.iter().map(|&v| f(v)).collect();
     Some(crate::result::Series {
-        label: crate::evaluate::reference_name(r),
+        label: reference_name(r),
         x,
         lower: y.clone(),
         upper: y.clone(),

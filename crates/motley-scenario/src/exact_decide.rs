@@ -341,7 +341,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }
         ClaimKind::LawOf(a, r) => {
             let l = observable_law(s, *a)?;
-            let f = crate::evaluate::reference_cdf(r).ok_or("no reference CDF")?;
+            let f = crate::reference_law::reference_cdf(r).ok_or("no reference CDF")?;
             let mut acc = 0.0;
             let mut worst = 0.0f64;
             for (x, p) in scalar_cells(&l.cells) {

@@ -36,6 +36,7 @@
 #![allow(clippy::result_large_err)]
 
 pub mod accumulate;
+mod checker;
 pub mod cost;
 pub mod error;
 pub mod estimate;
@@ -50,6 +51,7 @@ pub mod picture;
 pub mod plan;
 pub mod raw;
 mod read_set;
+pub mod reference_law;
 mod resolve_read;
 pub mod result;
 pub mod run;

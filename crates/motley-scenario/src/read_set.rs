@@ -1,6 +1,7 @@
-//! Turning a row of engine colors into the elements of a set observable, in the file's numbers.
+//! Turning a row of engine colors into the elements of a set observable, in the file's numbers:
+//! the colorblind crate's set read-outs and index maps, composed as an observable asks.
 
-use motley_colorblind::{Color, IndexMap};
+use motley_colorblind::{push_colors, push_positions_at_least, Color, IndexMap};
 
 use crate::scenario::{ModelSpec, SetRead};
 
@@ -20,39 +21,8 @@ pub(crate) fn set_elements(
 ) {
     out.clear();
     match how {
-        SetRead::Colors => {
-            out.extend(
-                colors
-                    .iter()
-                    .filter(|&&c| c != 0)
-                    .map(|&c| model.to_user(c) as usize),
-            );
-        }
-        SetRead::Positions => {
-            let t = threshold.unwrap_or(1).max(1);
-            out.extend(
-                colors
-                    .iter()
-                    .enumerate()
-                    .filter(|(_, &c)| c >= t)
-                    .map(|(i, _)| i + 1),
-            );
-        }
+        SetRead::Colors => push_colors(colors, |c| model.to_user(c) as usize, out),
+        SetRead::Positions => push_positions_at_least(colors, threshold.unwrap_or(1), out),
     }
-    let n = universe as i64;
-    match map {
-        IndexMap::Identity => {}
-        IndexMap::Reflection => {
-            for e in out.iter_mut() {
-                *e = (n + 1 - *e as i64) as usize;
-            }
-        }
-        IndexMap::Shift(s) => {
-            for e in out.iter_mut() {
-                *e = (*e as i64 + s) as usize;
-            }
-        }
-    }
-    out.sort_unstable();
-    out.dedup();
+    map.map_elements(out, universe);
 }

@@ -2,10 +2,10 @@
 
 use motley_colorblind::{Color, IndexMap as SetMap};
 
+use crate::checker::{Checker, MAX_SIDE};
 use crate::error::ScenarioError;
 use crate::raw::*;
 use crate::scenario::*;
-use crate::validate::{map_fits, Checker, MAX_SIDE};
 
 fn set_read(k: RawSetKind) -> SetRead {
     match k {
@@ -281,9 +281,9 @@ pub(crate) fn observable(
             ));
         };
         if let SetMap::Shift(s) = map {
-            // Checked here, with the shifted range in the message, and before `map_fits`, whose
+            // Checked here, with the shifted range in the message, and before `IndexMap::fits`, whose
             // arithmetic would overflow for shifts near the ends of i64.
-            let fits = s.unsigned_abs() <= MAX_SIDE as u64 && map_fits(&map, universe, universe);
+            let fits = s.unsigned_abs() <= MAX_SIDE as u64 && map.fits(universe, universe);
             if !fits {
                 let (lo, hi) = (1 + i128::from(s), universe as i128 + i128::from(s));
                 return Err(ck.error(
@@ -292,7 +292,7 @@ pub(crate) fn observable(
                 ));
             }
         }
-        if !map_fits(&map, universe, universe) {
+        if !map.fits(universe, universe) {
             return Err(ck.error(
                 &format!("{path}.map"),
                 format!("the map does not fit the window: it sends some of {{1, …, {universe}}} outside it"),

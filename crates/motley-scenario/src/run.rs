@@ -192,17 +192,40 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
     Ok(out)
 }
 
-/// Continues `partial` for up to `budget` more samples (all remaining when `None`), on `threads`
-/// threads, adding finished samples to `progress` and stopping early (at a chunk boundary) when
+/// The worker threads of a run, started once and used by every call of [`advance`].
+pub struct Workers {
+    pool: rayon::ThreadPool,
+}
+
+impl Workers {
+    /// Starts `threads` worker threads.
+    ///
+    /// # Errors
+    /// [`RunError::Threads`] if the threads cannot be started.
+    pub fn new(threads: usize) -> Result<Self, RunError> {
+        let pool = rayon::ThreadPoolBuilder::new()
+            .num_threads(threads)
+            .build()
+            .map_err(|_| RunError::Threads(threads))?;
+        Ok(Workers { pool })
+    }
+
+    /// Number of worker threads.
+    pub fn threads(&self) -> usize {
+        self.pool.current_num_threads()
+    }
+}
+
+/// Continues `partial` for up to `budget` more samples (all remaining when `None`) on `workers`, adding finished samples to `progress` and stopping early (at a chunk boundary) when
 /// `stop` is raised. Returns whether the shard is complete.
 ///
 /// # Errors
-/// [`RunError`] if an engine cannot be built or the thread pool cannot start.
+/// [`RunError`] if an engine cannot be built.
 pub fn advance(
     s: &Scenario,
     plan: &Plan,
     partial: &mut Partial,
-    threads: usize,
+    workers: &Workers,
     progress: &AtomicU64,
     stop: &AtomicBool,
     budget: Option<u64>,
@@ -213,10 +236,7 @@ pub fn advance(
         Some(b) => (partial.done + b).min(end),
         None => end,
     };
-    let pool = rayon::ThreadPoolBuilder::new()
-        .num_threads(threads)
-        .build()
-        .map_err(|_| RunError::Threads(threads))?;
+    let threads = workers.threads();
     // Work proceeds in rounds of a few chunks per thread, so that a stop request is honoured soon
     // and every round ends on a chunk boundary that a checkpoint can record.
     // Chunks shrink when few samples remain, so that every thread gets work even in a run of a
@@ -235,7 +255,7 @@ pub fn advance(
             .step_by(chunk as usize)
             .map(|a| (a, (a + chunk).min(hi)))
             .collect();
-        let results: Vec<Result<Vec<Accumulator>, RunError>> = pool.install(|| {
+        let results: Vec<Result<Vec<Accumulator>, RunError>> = workers.pool.install(|| {
             chunks
                 .par_iter()
                 .map(|&(a, b)| {

@@ -5,10 +5,10 @@
 
 use motley_reference::{SixVertexStep, TasepStep};
 
+use crate::checker::Checker;
 use crate::error::ScenarioError;
 use crate::raw::{RawClaim, RawReference, RawSeries};
 use crate::scenario::*;
-use crate::validate::Checker;
 
 /// Profile names a `series` accepts.
 pub const SERIES_PROFILES: [&str; 2] = ["six-vertex-step-height", "tasep-step-count"];

@@ -61,6 +61,7 @@ fn distance(v: &[f64], kappa: f64) -> f64 {
 }
 
 #[test]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn exit_speed_approaches_its_limit_law() {
     let kappa = SixVertexStep::from_weights(B1, B2).unwrap().kappa();
     let small = speeds(125, 3000, 11);

@@ -63,7 +63,7 @@ const EXCESS_AT_600: f64 = 0.008;
 const Z: f64 = 5.0;
 
 #[test]
-#[cfg_attr(debug_assertions, ignore = "slow in debug builds; run with --release")]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn height_approaches_the_limit_shape() {
     let (x, y) = (0.8, 1.0);
     let target = limit(x, y);
@@ -98,7 +98,7 @@ fn height_approaches_the_limit_shape() {
 /// (checked at L = 1000). The slack 1e-3 is our own choice (the heights there are deterministic in
 /// practice: the fluctuations in a frozen region are exponentially small).
 #[test]
-#[cfg_attr(debug_assertions, ignore = "slow in debug builds; run with --release")]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn frozen_regions() {
     let (m, se) = mean_height(1000, 0.3, 1.0, 100, 13);
     println!(

@@ -261,14 +261,14 @@ fn check_pair_with(b1: f64, b2: f64, xs: &[f64], seed: u64, shift: Shift) -> Vec
 
 /// b1 = 0.3, b2 = 0.6: κ = 1.75, curved region 0.571 < x < 1.75.
 #[test]
-#[cfg_attr(debug_assertions, ignore = "slow in debug builds; run with --release")]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn mean_height_in_band_kappa_1_75() {
     check_pair(0.3, 0.6, &[0.45, 0.7, 1.0, 1.3, 1.6, 2.0], 71);
 }
 
 /// b1 = 0.1, b2 = 0.19: κ = 10/9, curved region 0.9 < x < 1.111.
 #[test]
-#[cfg_attr(debug_assertions, ignore = "slow in debug builds; run with --release")]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn mean_height_in_band_kappa_near_one() {
     check_pair(0.1, 0.19, &[0.8, 0.95, 1.0, 1.05, 1.2], 72);
 }
@@ -277,7 +277,7 @@ fn mean_height_in_band_kappa_near_one() {
 /// At L = 1000 the mean sits far above the KPZ band; the band checked is our measured one
 /// (`WEAK_SHIFT`), and the excess over `L·h` in units of `L` must shrink from L = 250 to 1000.
 #[test]
-#[cfg_attr(debug_assertions, ignore = "slow in debug builds; run with --release")]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn mean_height_in_band_b1_close_to_b2() {
     let (b1, b2) = (0.5, 0.55);
     let points = check_pair_with(b1, b2, &[0.75, 0.95, 1.0, 1.05, 1.3], 73, WEAK_SHIFT);

@@ -4,9 +4,7 @@
 //! so its false-alarm rate is 1e-6 (seeds are fixed, so a given build either passes or fails for good).
 //! The same test run on deliberately wrong vertex rules must give p < 1e-6.
 
-mod common;
-
-use common::{chi_square, tally, FALSE_ALARM};
+use crate::common::{chi_square, tally, FALSE_ALARM};
 use motley_sixvertex::{exact_law, Boundary, ColorRule, Model, Outcome, Side, VertexRule};
 
 const SAMPLES: u64 = 100_000;

@@ -50,6 +50,24 @@ impl InclusionCounts {
         Self::default()
     }
 
+    /// Counts kept elsewhere: `counts[e]` of `samples` sets contained element `e`.
+    ///
+    /// # Errors
+    /// [`StatsError::SuccessesExceedTrials`] if a count exceeds `samples`.
+    pub fn from_counts(samples: u64, counts: Vec<u64>) -> Result<Self, StatsError> {
+        if let Some(&count) = counts.iter().find(|&&c| c > samples) {
+            return Err(StatsError::SuccessesExceedTrials {
+                successes: count,
+                trials: samples,
+            });
+        }
+        Ok(InclusionCounts {
+            samples,
+            counts,
+            ..Self::default()
+        })
+    }
+
     /// Records one sampled set given by the indices of its elements.
     ///
     /// # Errors
@@ -252,6 +270,9 @@ mod tests {
         }
         let r = compare_inclusion(&a, &b).unwrap();
         assert_eq!(r.tested, 2);
+        let counted = InclusionCounts::from_counts(1000, vec![a.count(0), a.count(1)]).unwrap();
+        assert_eq!(counted, a);
+        assert!(InclusionCounts::from_counts(3, vec![4]).is_err());
         assert_eq!(r.elements[0].p_value, 1.0);
         assert!(r.elements[1].adjusted_p_value < 1e-10);
         assert_eq!(r.elements[1].adjusted_p_value, 2.0 * r.elements[1].p_value);

@@ -45,6 +45,28 @@ pub fn kolmogorov_sf(x: f64) -> f64 {
     }
 }
 
+/// The upper `alpha` quantile of the Kolmogorov distribution: the `x` with `P(K > x) = alpha`, by
+/// bisection on [`kolmogorov_sf`] over `[0.2, 5]` (100 halvings; `alpha` outside
+/// `(P(K > 5), P(K > 0.2))` gives the nearer end).
+///
+/// # Examples
+/// ```
+/// // Common table: the 5% critical value of the Kolmogorov distribution is 1.358.
+/// assert!((motley_stats::kolmogorov_quantile(0.05) - 1.358).abs() < 1e-3);
+/// ```
+pub fn kolmogorov_quantile(alpha: f64) -> f64 {
+    let (mut lo, mut hi) = (0.2, 5.0);
+    for _ in 0..100 {
+        let mid = 0.5 * (lo + hi);
+        if kolmogorov_sf(mid) > alpha {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    0.5 * (lo + hi)
+}
+
 fn small_x_cdf(x: f64) -> f64 {
     let c = PI * PI / (8.0 * x * x);
     let mut sum = 0.0;

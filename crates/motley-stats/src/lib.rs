@@ -77,7 +77,7 @@ pub use chi_square_dist::{
 pub use error::StatsError;
 pub use exact_law::{ExactLaw, LAW_MASS_TOLERANCE};
 pub use inclusion::{compare_inclusion, ElementComparison, InclusionComparison, InclusionCounts};
-pub use kolmogorov::{kolmogorov_cdf, kolmogorov_sf};
+pub use kolmogorov::{kolmogorov_cdf, kolmogorov_quantile, kolmogorov_sf};
 pub use ks_one_sample::{ks_one_sample, ks_one_sample_sf, smirnov_sf, EXACT_ONE_SAMPLE_MAX_N};
 pub use ks_two_sample::{
     ks_two_sample, ks_two_sample_counts, KsMethod, KsPValueMethod, KsResult,

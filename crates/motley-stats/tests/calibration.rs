@@ -10,9 +10,7 @@
 //!
 //! Everything is seeded (ChaCha8, seed = test id, stream = trial), so these are deterministic checks.
 
-mod common;
-
-use common::{exponential, product_set_law, rng, uniform, Finite};
+use crate::common::{exponential, product_set_law, rng, uniform, Finite};
 use motley_stats::{
     chi_square_goodness_of_fit, chi_square_homogeneity, compare_inclusion, ks_one_sample,
     ks_two_sample, CategoricalCounts, ChiSquareOptions, ExactLaw, InclusionCounts, KsMethod,

@@ -3,9 +3,7 @@
 //! Results are compared through their `Debug` text, which spells every `f64` exactly (shortest
 //! round-trip form), so equal text means equal bits.
 
-mod common;
-
-use common::{exponential, rng, uniform};
+use crate::common::{exponential, rng, uniform};
 use motley_stats::{
     chi_square_goodness_of_fit, chi_square_homogeneity, compare_inclusion, ks_one_sample,
     ks_permutation_test, ks_permutation_test_counts, ks_two_sample, ks_two_sample_counts,

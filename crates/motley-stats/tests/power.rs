@@ -19,9 +19,7 @@
 //! - TV upper bound (95%) must cover the true t in ≥ 85% of trials; with guaranteed coverage
 //!   ≥ 0.95, P(fail) <= binom.cdf(169, 200, 0.95) = 2.5e-8.
 
-mod common;
-
-use common::{product_set_law, rng, Finite};
+use crate::common::{product_set_law, rng, Finite};
 use motley_stats::{
     chi_square_homogeneity, detectable_total_variation, total_variation, CategoricalCounts,
     ChiSquareOptions,

@@ -1,0 +1,9 @@
+//! The crate's integration tests, linked into one binary; each module is one concern.
+
+mod color_position;
+mod common;
+mod line_published;
+mod monte_carlo_exact;
+mod properties;
+mod ring_stationary;
+mod tracy_widom_trend;

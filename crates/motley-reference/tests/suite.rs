@@ -1,0 +1,3 @@
+//! The crate's integration tests, linked into one binary; each module is one concern.
+
+mod tracy_widom_reference;

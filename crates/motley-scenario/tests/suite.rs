@@ -1,0 +1,4 @@
+//! The crate's integration tests, linked into one binary; each module is one concern.
+
+mod fuzz_loader;
+mod guide;

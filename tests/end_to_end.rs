@@ -1,0 +1,10 @@
+//! The end-to-end tests, one binary: each module runs the real `motley` binary on scenarios.
+
+mod bad_scenarios;
+mod committed_reports;
+mod common;
+mod interruption;
+mod reproducibility;
+mod result_schema;
+mod theory_series;
+mod worked_scenarios;
