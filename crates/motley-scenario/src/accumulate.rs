@@ -13,6 +13,7 @@ use std::collections::BTreeMap;
 use motley_colorblind::Summary;
 use serde::{Deserialize, Serialize};
 
+use crate::family::Value;
 use crate::scenario::ValueKind;
 
 /// Largest universe whose joint set law is kept.
@@ -212,6 +213,17 @@ impl Accumulator {
             .zip([summary.size as u64, min, max, summary.sum])
         {
             *h.entry(v).or_insert(0) += 1;
+        }
+    }
+
+    /// Adds one value of the accumulator's kind (validation matched the observable's value kind
+    /// to its accumulator; a value of another kind is a bug, ignored in release builds).
+    pub fn add(&mut self, v: Value<'_>) {
+        match v {
+            Value::Set(e) => self.add_set(e),
+            Value::Number(x) => self.add_scalar(x),
+            Value::Event(b) => self.add_event(b),
+            Value::Sequence(q) => self.add_sequence(q),
         }
     }
 

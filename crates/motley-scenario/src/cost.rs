@@ -6,12 +6,10 @@
 //! Performance section). The estimate is meant to be right within a factor of a few.
 
 use crate::plan::Plan;
-use crate::scenario::{LatticeSpec, ModelKind, Scenario, ValueKind};
+use crate::scenario::{Scenario, ValueKind};
 
-/// Vertices per second per thread assumed by the estimate.
-pub const SIX_VERTEX_RATE: f64 = 1.5e8;
-/// Exclusion events per second per thread assumed by the estimate.
-pub const EXCLUSION_RATE: f64 = 5e7;
+pub use crate::exclusion_family::EXCLUSION_RATE;
+pub use crate::six_vertex_family::SIX_VERTEX_RATE;
 
 /// Estimated cost.
 #[derive(Debug, Clone, PartialEq)]
@@ -24,39 +22,12 @@ pub struct Cost {
     pub bytes: f64,
 }
 
-/// Work (in engine steps) and state bytes of one sample of model `m`.
-fn per_sample(s: &Scenario, m: usize) -> (f64, f64) {
-    match &s.models[m].kind {
-        ModelKind::SixVertex(sv) => (
-            (sv.width * sv.height) as f64 / SIX_VERTEX_RATE,
-            (sv.width * 40 + sv.height * 16) as f64,
-        ),
-        ModelKind::Exclusion(e) => {
-            let t = e.times.last().copied().unwrap_or(0.0);
-            let rate = e.p.value + e.q.value;
-            let (events, sites) = match e.lattice {
-                LatticeSpec::Segment(n) | LatticeSpec::Ring(n) => (n as f64 * rate * t, n as f64),
-                // The active region grows at speed at most about 2(p + q) on each side.
-                LatticeSpec::Line => {
-                    let block = match &e.initial {
-                        crate::scenario::InitialSpec::Line { block, .. } => block.len() as f64,
-                        _ => 1.0,
-                    };
-                    let width = block + 4.0 * rate * t;
-                    (0.5 * (block + width) * rate * t, width)
-                }
-            };
-            (events / EXCLUSION_RATE, sites * 16.0)
-        }
-    }
-}
-
 /// Estimates the Monte Carlo part of `plan` on `threads` threads.
 pub fn estimate(s: &Scenario, plan: &Plan, threads: usize) -> Cost {
     let mut seconds = 0.0;
     let mut state = 0.0f64;
     for u in &plan.units {
-        let (t, b) = per_sample(s, u.model);
+        let (t, b) = s.models[u.model].kind.family().cost_per_sample();
         seconds += t * s.samples as f64;
         state = state.max(b);
     }

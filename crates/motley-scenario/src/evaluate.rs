@@ -29,7 +29,7 @@ use crate::accumulate::{mask_elements, Accumulator, SetCounts, EMPTY_SUMMARY};
 use crate::estimate::*;
 use crate::reference_law::{reference_cdf, reference_name};
 use crate::result::{ClaimResult, Effect, Estimates, Series, Stated, TestResult};
-use crate::scenario::{ClaimKind, ClaimSpec, ReadSpec, ReferenceSpec, Scenario};
+use crate::scenario::{ClaimKind, ClaimSpec, ReferenceSpec, Scenario};
 
 struct Family {
     tests: Vec<TestResult>,
@@ -536,10 +536,12 @@ pub fn evaluate(
             if let (Accumulator::Scalar(x), Accumulator::Set(p)) =
                 (accs(slots, &sl[0]), accs(slots, &sl[1]))
             {
-                let from = match s.observables[sl[1].observable].read {
-                    ReadSpec::Window(from, ..) => from,
-                    _ => 1,
-                };
+                let pb = &s.observables[sl[1].observable];
+                let from = s.models[pb.model]
+                    .kind
+                    .family()
+                    .window_origin(&pb.read)
+                    .unwrap_or(1);
                 effect = tail_from_profile(s, labels, &x.values, p, from, &mut fam, &mut est);
             }
         }
@@ -620,30 +622,40 @@ pub fn evaluate(
     let rejected = fam.close(s.alpha);
     let samples = sl.first().map(|x| accs(slots, x).count()).unwrap_or(0);
     let z = normal_upper_quantile(s.alpha / 2.0);
-    let stated = match (&c.kind, accs(slots, &sl[0])) {
-        (ClaimKind::Probability(_, Some(p0)), Accumulator::Event(e)) if e.n > 0 => {
-            let ph = e.yes as f64 / e.n as f64;
-            Some(Stated {
-                role: "equals".into(),
-                value: *p0,
-                estimate: ph,
-                difference: ph - p0,
-                half_width: z * (ph * (1.0 - ph) / e.n as f64).sqrt(),
-            })
-        }
-        (ClaimKind::Describe(_, _, Some(limit)), Accumulator::Scalar(x))
-            if !x.values.is_empty() =>
-        {
-            let m = moments("", &x.values);
-            Some(Stated {
-                role: "limit".into(),
-                value: *limit,
-                estimate: m.mean,
-                difference: m.mean - limit,
-                half_width: z * m.sd / (m.count as f64).sqrt(),
-            })
-        }
-        _ => None,
+    let first = accs(slots, &sl[0]);
+    let stated = match &c.kind {
+        ClaimKind::Probability(_, Some(p0)) => match first {
+            Accumulator::Event(e) if e.n > 0 => {
+                let ph = e.yes as f64 / e.n as f64;
+                Some(Stated {
+                    role: "equals".into(),
+                    value: *p0,
+                    estimate: ph,
+                    difference: ph - p0,
+                    half_width: z * (ph * (1.0 - ph) / e.n as f64).sqrt(),
+                })
+            }
+            _ => None,
+        },
+        ClaimKind::Describe(_, _, Some(limit)) => match first {
+            Accumulator::Scalar(x) if !x.values.is_empty() => {
+                let m = moments("", &x.values);
+                Some(Stated {
+                    role: "limit".into(),
+                    value: *limit,
+                    estimate: m.mean,
+                    difference: m.mean - limit,
+                    half_width: z * m.sd / (m.count as f64).sqrt(),
+                })
+            }
+            _ => None,
+        },
+        ClaimKind::Probability(_, None)
+        | ClaimKind::Describe(_, _, None)
+        | ClaimKind::SameLaw(..)
+        | ClaimKind::LawOf(..)
+        | ClaimKind::Series(_)
+        | ClaimKind::Joint(..) => None,
     };
     let verdict = verdict(s, c, rejected, &effect);
     ClaimResult {

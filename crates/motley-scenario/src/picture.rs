@@ -35,7 +35,7 @@ pub fn sample_picture(s: &Scenario) -> Option<PictureData> {
         _ => None,
     })?;
     let mut unit = SixVertexUnit::new(m, sv, Vec::new(), true).ok()?;
-    unit.sample(unit_seed(s.seed, &m.name, 0), 0, &mut []);
+    unit.draw(unit_seed(s.seed, &m.name, 0), 0);
     let r = unit.readout();
     let c = r.configuration()?;
     let (w, h) = (sv.width, sv.height);

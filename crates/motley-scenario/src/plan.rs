@@ -1,17 +1,11 @@
 //! The plan of a run: which claims exact laws decide, and which sampling units Monte Carlo needs.
 
 use crate::error::ScenarioError;
-use crate::scenario::{
-    ClaimKind, ExactMode, LatticeSpec, ModelKind, ReadSpec, ReferenceSpec, Scenario,
-};
+use crate::scenario::{ClaimKind, ExactMode, ReferenceSpec, Scenario};
 use crate::unit::{claim_slots, units_for, Slot, Unit};
 
-/// Largest six-vertex rectangle (vertices) decided exactly in `auto` mode.
-pub const EXACT_SIX_VERTEX_VERTICES: usize = 30;
-/// Largest side of a six-vertex rectangle decided exactly in `auto` mode.
-pub const EXACT_SIX_VERTEX_SIDE: usize = 6;
-/// Largest segment or ring decided exactly.
-pub const EXACT_EXCLUSION_SITES: usize = 7;
+pub use crate::exclusion_family::EXACT_EXCLUSION_SITES;
+pub use crate::six_vertex_family::{EXACT_SIX_VERTEX_SIDE, EXACT_SIX_VERTEX_VERTICES};
 
 /// What a run does.
 #[derive(Debug, Clone)]
@@ -28,59 +22,7 @@ pub struct Plan {
 pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
     let obs = &s.observables[o];
     let m = &s.models[obs.model];
-    match &m.kind {
-        ModelKind::SixVertex(sv) => {
-            if sv.width * sv.height > EXACT_SIX_VERTEX_VERTICES
-                || sv.width.max(sv.height) > EXACT_SIX_VERTEX_SIDE
-            {
-                return Some(format!(
-                    "model `{}` is {}×{}; exact laws are computed up to {} vertices with sides ≤ {}",
-                    m.name, sv.width, sv.height, EXACT_SIX_VERTEX_VERTICES, EXACT_SIX_VERTEX_SIDE
-                ));
-            }
-            if !matches!(sv.left, crate::scenario::BoundarySpec::Fixed(_))
-                || !matches!(sv.bottom, crate::scenario::BoundarySpec::Fixed(_))
-            {
-                return Some(format!("model `{}` has a random boundary", m.name));
-            }
-            match obs.read {
-                ReadSpec::Top(_) | ReadSpec::Right(_) | ReadSpec::ExitColumn(_) => None,
-                _ => Some(format!(
-                    "observable `{}` reads inside the rectangle; exact laws cover the top and right exits",
-                    obs.name
-                )),
-            }
-        }
-        ModelKind::Exclusion(e) => {
-            let n = match e.lattice {
-                LatticeSpec::Segment(n) | LatticeSpec::Ring(n) => n,
-                LatticeSpec::Line => {
-                    return Some(format!(
-                        "model `{}` lives on the line; exact laws need a segment or a ring",
-                        m.name
-                    ))
-                }
-            };
-            if n > EXACT_EXCLUSION_SITES {
-                return Some(format!(
-                    "model `{}` has {n} sites; exact laws are computed up to {EXACT_EXCLUSION_SITES}",
-                    m.name
-                ));
-            }
-            let ring = matches!(e.lattice, LatticeSpec::Ring(_));
-            match obs.read {
-                ReadSpec::Attempted(..) => Some(format!(
-                    "observable `{}` depends on the path, not only on the arrangement at one time",
-                    obs.name
-                )),
-                ReadSpec::Current(..) | ReadSpec::Swapped(..) if ring => Some(format!(
-                    "observable `{}` on a ring depends on the path, not only on the arrangement",
-                    obs.name
-                )),
-                _ => None,
-            }
-        }
-    }
+    m.kind.family().exact_obstacle(m, obs)
 }
 
 fn claim_observables(kind: &ClaimKind) -> Vec<usize> {

@@ -286,6 +286,27 @@ pub enum RawRead {
     Attempted(RawPairRead),
 }
 
+impl RawRead {
+    /// The read-out's key in files.
+    pub fn name(&self) -> &'static str {
+        match self {
+            RawRead::Top(_) => "top",
+            RawRead::Right(_) => "right",
+            RawRead::Row(_) => "row",
+            RawRead::Column(_) => "column",
+            RawRead::Height(_) => "height",
+            RawRead::ExitColumn(_) => "exit-column",
+            RawRead::Window(_) => "window",
+            RawRead::Position(_) => "position",
+            RawRead::Arrangement(_) => "arrangement",
+            RawRead::InverseArrangement(_) => "inverse-arrangement",
+            RawRead::Current(_) => "current",
+            RawRead::Swapped(_) => "swapped",
+            RawRead::Attempted(_) => "attempted",
+        }
+    }
+}
+
 /// `row:` keys.
 #[derive(Debug, Clone, Deserialize, Serialize)]
 #[serde(deny_unknown_fields, rename_all = "kebab-case")]

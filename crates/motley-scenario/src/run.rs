@@ -14,8 +14,9 @@ use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
 
 use crate::accumulate::Accumulator;
+use crate::family::UnitSampler;
 use crate::plan::Plan;
-use crate::scenario::{ModelKind, Scenario};
+use crate::scenario::Scenario;
 use crate::unit::{Slot, Unit};
 
 /// Largest number of samples per work chunk: the grain of parallelism, progress and checkpoints.
@@ -113,28 +114,16 @@ pub enum RunError {
     Threads(usize),
 }
 
-/// Per-unit sampler state (one per unit per chunk, so the size difference is immaterial).
-#[allow(clippy::large_enum_variant)]
-enum Sampler<'a> {
-    SixVertex(crate::six_vertex_unit::SixVertexUnit<'a>),
-    Exclusion(crate::exclusion_unit::ExclusionUnit<'a>),
-}
-
-fn sampler<'a>(s: &'a Scenario, u: &Unit) -> Result<Sampler<'a>, RunError> {
+fn sampler<'a>(s: &'a Scenario, u: &Unit) -> Result<Box<dyn UnitSampler + 'a>, RunError> {
     let m = &s.models[u.model];
     let obs = u.observables.iter().map(|&o| &s.observables[o]).collect();
-    let err = |message: String| RunError::Engine {
-        model: m.name.clone(),
-        message,
-    };
-    Ok(match &m.kind {
-        ModelKind::SixVertex(sv) => Sampler::SixVertex(
-            crate::six_vertex_unit::SixVertexUnit::new(m, sv, obs, false).map_err(err)?,
-        ),
-        ModelKind::Exclusion(ex) => {
-            Sampler::Exclusion(crate::exclusion_unit::ExclusionUnit::new(m, ex, obs).map_err(err)?)
-        }
-    })
+    m.kind
+        .family()
+        .sampler(m, obs)
+        .map_err(|message| RunError::Engine {
+            model: m.name.clone(),
+            message,
+        })
 }
 
 /// Runs sample indices `[from, to)` of every unit of `plan` and returns the accumulators, in the
@@ -157,10 +146,7 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
             .collect();
         let mut local: Vec<Accumulator> = positions.iter().map(|&p| out[p].clone()).collect();
         for i in from..to {
-            match &mut smp {
-                Sampler::SixVertex(x) => x.sample(u.seed, i, &mut local),
-                Sampler::Exclusion(x) => x.sample(u.seed, i, &mut local),
-            }
+            smp.sample(u.seed, i, &mut |k, v| local[k].add(v));
         }
         for (acc, &p) in local.into_iter().zip(&positions) {
             out[p] = acc;

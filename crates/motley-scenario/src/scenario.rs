@@ -226,36 +226,51 @@ pub enum SetRead {
     Positions,
 }
 
-/// A read-out, resolved (engine colors, 1-based coordinates).
+/// A read-out, resolved (engine colors, 1-based coordinates): one variant per model family, each
+/// family's own read-outs inside.
 #[derive(Debug, Clone, PartialEq)]
 pub enum ReadSpec {
-    /// Six-vertex: edges leaving the top.
+    /// A read-out of a six-vertex model.
+    SixVertex(SixVertexRead),
+    /// A read-out of an exclusion process.
+    Exclusion(ExclusionRead),
+}
+
+/// The read-outs of a six-vertex rectangle.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SixVertexRead {
+    /// Edges leaving the top.
     Top(SetRead),
-    /// Six-vertex: edges leaving the right side.
+    /// Edges leaving the right side.
     Right(SetRead),
-    /// Six-vertex: vertical edges above row `y` (0: the bottom boundary).
+    /// Vertical edges above row `y` (0: the bottom boundary).
     Row(usize, SetRead),
-    /// Six-vertex: horizontal edges right of column `x` (0: the left boundary).
+    /// Horizontal edges right of column `x` (0: the left boundary).
     Column(usize, SetRead),
-    /// Six-vertex height function `H(x, y)`.
-    Height6v(usize, usize),
-    /// Six-vertex: the column where a color leaves the top (0 when it leaves through the right).
+    /// The height function `H(x, y)`.
+    Height(usize, usize),
+    /// The column where a color leaves the top (0 when it leaves through the right).
     ExitColumn(Color),
-    /// Exclusion: sites `from..=to` at time index `t`.
+}
+
+/// The read-outs of an exclusion process; the last field is the index of the read-out time.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ExclusionRead {
+    /// Sites `from..=to`.
     Window(i64, i64, usize, SetRead),
-    /// Exclusion: site of a color at time index `t`.
+    /// Site of a color.
     Position(Color, usize),
-    /// Exclusion: the arrangement (user classes by site) at time index `t`.
+    /// The arrangement (user classes by site).
     Arrangement(usize),
-    /// Exclusion: the inverse arrangement at time index `t`.
+    /// The inverse arrangement.
     InverseArrangement(usize),
-    /// Exclusion: net current of colors ≥ threshold through bond `(b, b+1)` by time index `t`.
+    /// Net current of colors ≥ threshold through bond `(b, b+1)`.
     Current(i64, usize),
-    /// Exclusion: height at site `x` (paths at sites `> x`, colors ≥ threshold) at time index `t`.
-    HeightExcl(i64, usize),
-    /// Exclusion: two colors in the opposite order at time index `t`.
+    /// Height at site `x` (paths at sites `> x`, colors ≥ threshold).
+    Height(i64, usize),
+    /// Two colors in the opposite order.
     Swapped(Color, Color, usize),
-    /// Exclusion: one of two colors attempted a jump onto the other by time index `t`.
+    /// One of two colors attempted a jump onto the other.
     Attempted(Color, Color, usize),
 }
 

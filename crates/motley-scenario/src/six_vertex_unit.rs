@@ -1,14 +1,13 @@
 //! The six-vertex model behind a sampling unit: building the engine from the validated spec and
 //! reading every observable of the unit from one sample.
 
-use motley_colorblind::Color;
 use motley_sixvertex::{
     Boundary, ColorRule, HeightQuery, Model, Readout, ReadoutSpec, Side, SixVertexError,
 };
 
-use crate::accumulate::Accumulator;
-use crate::read_set::set_elements;
-use crate::scenario::{BoundarySpec, ModelSpec, ObservableSpec, ReadSpec, SixVertexSpec};
+use crate::family::{UnitSampler, Value};
+use crate::scenario::{BoundarySpec, ModelSpec, ObservableSpec, SixVertexRead, SixVertexSpec};
+use crate::six_vertex_family::{read, read_of};
 
 /// Engine side of a [`BoundarySpec`].
 pub(crate) fn side(b: &BoundarySpec) -> Result<Side, String> {
@@ -73,10 +72,10 @@ impl<'a> SixVertexUnit<'a> {
         let mut height_slot = Vec::new();
         for o in &observables {
             let mut slot = None;
-            match o.read {
-                ReadSpec::Row(y, _) => rs.horizontal_lines.push(y),
-                ReadSpec::Column(x, _) => rs.vertical_lines.push(x),
-                ReadSpec::Height6v(a, b) => {
+            match *read_of(o) {
+                SixVertexRead::Row(y, _) => rs.horizontal_lines.push(y),
+                SixVertexRead::Column(x, _) => rs.vertical_lines.push(x),
+                SixVertexRead::Height(a, b) => {
                     slot = Some(rs.heights.len());
                     rs.heights.push(HeightQuery {
                         a,
@@ -84,7 +83,7 @@ impl<'a> SixVertexUnit<'a> {
                         threshold: o.threshold.unwrap_or(1).max(1),
                     });
                 }
-                _ => {}
+                SixVertexRead::Top(_) | SixVertexRead::Right(_) | SixVertexRead::ExitColumn(_) => {}
             }
             height_slot.push(slot);
         }
@@ -99,58 +98,31 @@ impl<'a> SixVertexUnit<'a> {
         })
     }
 
-    /// Draws sample `index` under `seed` and feeds `accs` (one per observable, same order).
-    pub(crate) fn sample(&mut self, seed: u64, index: u64, accs: &mut [Accumulator]) {
+    /// Draws sample `index` under `seed` (for the picture, which reads no observable).
+    pub(crate) fn draw(&mut self, seed: u64, index: u64) {
         self.model.sample(seed, index, &mut self.readout);
-        for (k, o) in self.observables.iter().enumerate() {
-            let acc = &mut accs[k];
-            let universe = match o.kind {
-                crate::scenario::ValueKind::Set { universe } => universe,
-                _ => 0,
-            };
-            let mut set = |colors: &[Color], how, scratch: &mut Vec<usize>| {
-                set_elements(
-                    colors,
-                    how,
-                    o.threshold,
-                    o.map,
-                    universe,
-                    self.spec,
-                    scratch,
-                );
-                acc.add_set(scratch);
-            };
-            match o.read {
-                ReadSpec::Top(how) => set(self.readout.top(), how, &mut self.scratch),
-                ReadSpec::Right(how) => set(self.readout.right(), how, &mut self.scratch),
-                ReadSpec::Row(y, how) => {
-                    let line = self.readout.horizontal_line(y).unwrap_or(&[]);
-                    set(line, how, &mut self.scratch)
-                }
-                ReadSpec::Column(x, how) => {
-                    let line = self.readout.vertical_line(x).unwrap_or(&[]);
-                    set(line, how, &mut self.scratch)
-                }
-                ReadSpec::Height6v(..) => {
-                    let h = self.height_slot[k].map_or(0, |s| self.readout.heights()[s]);
-                    acc.add_scalar((h as f64 + o.shift) * o.scale);
-                }
-                ReadSpec::ExitColumn(c) => {
-                    let col = self
-                        .readout
-                        .top()
-                        .iter()
-                        .position(|&t| t == c)
-                        .map_or(0, |p| p + 1);
-                    acc.add_scalar((col as f64 + o.shift) * o.scale);
-                }
-                _ => {}
-            }
-        }
     }
 
     /// The configuration of the last sample (when built with `picture`).
     pub(crate) fn readout(&self) -> &Readout {
         &self.readout
+    }
+}
+
+impl UnitSampler for SixVertexUnit<'_> {
+    fn sample(&mut self, seed: u64, index: u64, out: &mut dyn FnMut(usize, Value<'_>)) {
+        self.draw(seed, index);
+        for (k, o) in self.observables.iter().enumerate() {
+            out(
+                k,
+                read(
+                    self.spec,
+                    o,
+                    &self.readout,
+                    self.height_slot[k],
+                    &mut self.scratch,
+                ),
+            );
+        }
     }
 }

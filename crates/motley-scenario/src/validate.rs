@@ -144,7 +144,11 @@ fn read_time(r: &RawRead) -> Option<(&'static str, f64)> {
         RawRead::Current(c) => Some(("current", c.time)),
         RawRead::Swapped(p) => Some(("swapped", p.time)),
         RawRead::Attempted(p) => Some(("attempted", p.time)),
-        _ => None,
+        RawRead::Top(_)
+        | RawRead::Right(_)
+        | RawRead::Row(_)
+        | RawRead::Column(_)
+        | RawRead::ExitColumn(_) => None,
     }
 }
 
@@ -457,7 +461,8 @@ fn claim(
             .position(|k| *k == n)
             .ok_or_else(|| ck.unknown_name(p, "observable", n, names))
     };
-    let reference_at = |rp: &str, r: &RawReference, i: usize| reference(ck, rp, r, i, obs, &find);
+    let reference_at =
+        |rp: &str, r: &RawReference, i: usize| reference(ck, rp, r, i, (obs, models), &find);
     let kind = if let Some(sr) = &c.series {
         crate::validate_series::series(ck, path, sr, c, (obs, models), &find, &reference_at)?
     } else if let Some(pair) = &c.joint {
@@ -500,7 +505,14 @@ fn claim(
                 ),
             ));
         }
-        let reference = reference(ck, &format!("{p}.reference"), &l.reference, i, obs, &find)?;
+        let reference = reference(
+            ck,
+            &format!("{p}.reference"),
+            &l.reference,
+            i,
+            (obs, models),
+            &find,
+        )?;
         ClaimKind::LawOf(i, reference)
     } else if let Some(pr) = &c.probability {
         let p = format!("{path}.probability");
@@ -549,7 +561,7 @@ fn claim(
                 &format!("{path}.reference"),
                 r,
                 i,
-                obs,
+                (obs, models),
                 &find,
             )?),
         };
@@ -594,7 +606,7 @@ fn reference(
     rp: &str,
     raw: &RawReference,
     i: usize,
-    obs: &[ObservableSpec],
+    (obs, models): (&[ObservableSpec], &[ModelSpec]),
     find: &dyn Fn(&str, &str) -> Result<usize, ScenarioError>,
 ) -> Result<ReferenceSpec, ScenarioError> {
     let p = rp.trim_end_matches(".reference");
@@ -652,7 +664,11 @@ fn reference(
         }
         RawReference::TailFromProfile(name) => {
             let j = find(&format!("{rp}.tail-from-profile"), name)?;
-            let ok = matches!(obs[j].read, ReadSpec::Window(_, _, _, SetRead::Positions));
+            let ok = models[obs[j].model]
+                .kind
+                .family()
+                .window_origin(&obs[j].read)
+                .is_some();
             if !ok {
                 return Err(ck.error(
                     &format!("{rp}.tail-from-profile"),

@@ -1,9 +1,8 @@
 //! Validation of the `series` and `joint` claims and of the named profiles a series draws.
 //!
 //! A profile is resolved here, once, into the predicted value at each observable of the series:
-//! the observable's read-out fixes the coordinates and its model the parameters.
-
-use motley_reference::{SixVertexStep, TasepStep};
+//! the observable's read-out fixes the coordinates and its model the parameters; the value comes from
+//! the model's family ([`crate::family::ModelFamily::profile_value`]).
 
 use crate::checker::Checker;
 use crate::error::ScenarioError;
@@ -11,7 +10,10 @@ use crate::raw::{RawClaim, RawReference, RawSeries};
 use crate::scenario::*;
 
 /// Profile names a `series` accepts.
-pub const SERIES_PROFILES: [&str; 2] = ["six-vertex-step-height", "tasep-step-count"];
+pub const SERIES_PROFILES: [(&str, &str); 2] = [
+    ("six-vertex-step-height", "a six-vertex `height` read"),
+    ("tasep-step-count", "an exclusion `height` read"),
+];
 
 /// Largest number of observables in one series (a figure stays readable).
 pub const MAX_SERIES: usize = 200;
@@ -174,63 +176,29 @@ fn profile(
     for &i in idx {
         let o = &obs[i];
         let m = &models[o.model];
-        let v = match (name, &m.kind, &o.read) {
-            ("six-vertex-step-height", ModelKind::SixVertex(sv), ReadSpec::Height6v(x, y)) => {
-                let step = matches!(&sv.left, BoundarySpec::Fixed(c) if c.iter().all(|&c| c >= 1 && o.threshold.is_none_or(|t| c >= t)))
-                    && matches!(&sv.bottom, BoundarySpec::Fixed(c) if c.iter().all(|&c| c == 0 || o.threshold.is_some_and(|t| c < t)));
-                if !step {
-                    return Err(ck.error(path, format!("`six-vertex-step-height` needs the step boundary (a path on every left edge, none from below), but model \"{}\" of \"{}\" has other boundary data", m.name, o.name)));
-                }
-                let shape = SixVertexStep::from_weights(sv.b1.value, sv.b2.value)
-                    .map_err(|e| ck.error(path, format!("model \"{}\": {e}", m.name)))?;
-                shape.height(*x as f64, *y as f64)
-            }
-            ("tasep-step-count", ModelKind::Exclusion(ex), ReadSpec::HeightExcl(x, t)) => {
-                let step = match &ex.initial {
-                    InitialSpec::Line {
-                        left, right, block, ..
-                    } => {
-                        let t = o.threshold.unwrap_or(1);
-                        *left >= t && *right < t && block.iter().all(|&c| c < t)
-                    }
-                    InitialSpec::Sites(_) => false,
-                };
-                if !step {
-                    return Err(ck.error(path, format!("`tasep-step-count` needs step data on the line (particles left of `at`, none from `at` on), but model \"{}\" of \"{}\" has other initial data", m.name, o.name)));
-                }
-                let at = match &ex.initial {
-                    InitialSpec::Line { at, .. } => *at,
-                    InitialSpec::Sites(_) => unreachable!("checked above"),
-                };
-                let shape = TasepStep::asep(ex.p.value, ex.q.value)
-                    .map_err(|e| ck.error(path, format!("model \"{}\": {e}", m.name)))?;
-                // Particles on sites < at: the count right of x is that of step data at 1 for
-                // the site x − (at − 1).
-                shape.particles_right_of((x - (at - 1)) as f64, ex.times[*t])
-            }
-            (n, _, _) if SERIES_PROFILES.contains(&n) => {
-                let needs = if n == "six-vertex-step-height" {
-                    "a six-vertex `height` read"
-                } else {
-                    "an exclusion `height` read"
-                };
+        let Some(needs) = SERIES_PROFILES
+            .iter()
+            .find(|(n, _)| *n == name)
+            .map(|(_, needs)| needs)
+        else {
+            let known: Vec<&str> = SERIES_PROFILES.iter().map(|(n, _)| *n).collect();
+            return Err(ck.error(
+                path,
+                format!("unknown profile \"{name}\"; known: {}", known.join(", ")),
+            ));
+        };
+        let v = match m.kind.family().profile_value(name, m, o) {
+            Ok(Some(v)) => v,
+            Ok(None) => {
                 return Err(ck.error(
                     path,
                     format!(
-                        "`{n}` needs {needs}, but \"{}\" reads something else",
+                        "`{name}` needs {needs}, but \"{}\" reads something else",
                         o.name
-                    ),
-                ));
-            }
-            (n, _, _) => {
-                return Err(ck.error(
-                    path,
-                    format!(
-                        "unknown profile \"{n}\"; known: {}",
-                        SERIES_PROFILES.join(", ")
                     ),
                 ))
             }
+            Err(why) => return Err(ck.error(path, why)),
         };
         values.push((v + o.shift) * o.scale);
     }

@@ -90,7 +90,7 @@ fn mat_pow(a: &[f64], m: usize, n: u64) -> (Vec<f64>, i64) {
     let (v, ev) = mat_pow(a, m, n / 2);
     let b = mat_mul(&v, &v, m);
     let eb = 2 * ev;
-    let (mut v, mut ev) = if n % 2 == 0 {
+    let (mut v, mut ev) = if n.is_multiple_of(2) {
         (b, eb)
     } else {
         (mat_mul(a, &b, m), eb)

@@ -31,7 +31,7 @@ const TRIALS: u64 = 200;
 fn laws(t: f64) -> (Finite, Finite) {
     let p = product_set_law(&[0.5, 0.3, 0.6, 0.2]);
     let sign = |s: usize| {
-        if (s & 0b111).count_ones() % 2 == 0 {
+        if (s & 0b111).count_ones().is_multiple_of(2) {
             1.0
         } else {
             -1.0

@@ -298,7 +298,7 @@ pub fn check_xml(text: &str) -> Result<(), String> {
         let after = &rest[open + 1..];
         let close = after.find('>').ok_or("unterminated tag")?;
         let tag = &after[..close];
-        if tag.matches('"').count() % 2 != 0 {
+        if !tag.matches('"').count().is_multiple_of(2) {
             return Err(format!("unbalanced quotes in <{tag}>"));
         }
         if let Some(name) = tag.strip_prefix('/') {

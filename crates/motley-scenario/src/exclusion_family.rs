@@ -1,0 +1,501 @@
+//! Multi-species exclusion (ASEP, TASEP) as a model family: its read-outs, their one reading
+//! function (shared by Monte Carlo and exact mode), its exact laws, cost and profile.
+//!
+//! Exact mode reads an observable the way Monte Carlo does: the engine read-outs the observable asks
+//! for are computed from the exact law's arrangement ([`reading_of_arrangement`]) and go through the
+//! same [`read`] function as the engine's own readings.
+
+use motley_colorblind::Color;
+use motley_exclusion::{Reading, Readout};
+use motley_reference::TasepStep;
+
+use crate::checker::MAX_SIDE;
+use crate::error::ScenarioError;
+use crate::exclusion_unit::{build, ExclusionUnit, Process};
+use crate::family::{ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value};
+use crate::raw::{RawRead, RawSetKind};
+use crate::read_set::set_elements;
+use crate::scenario::{
+    ExclusionRead, ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, ReadSpec,
+    SetRead, ValueKind,
+};
+
+/// Largest segment or ring decided exactly.
+pub const EXACT_EXCLUSION_SITES: usize = 7;
+/// Exclusion events per second per thread assumed by the cost estimate (single core, this
+/// project's 2-core machine, release build; `cargo bench`, see the README's Performance section).
+pub const EXCLUSION_RATE: f64 = 5e7;
+
+/// The exclusion read-out of an observable (validation resolved it into this family's own).
+pub(crate) fn read_of(o: &ObservableSpec) -> &ExclusionRead {
+    match &o.read {
+        ReadSpec::Exclusion(r) => r,
+        ReadSpec::SixVertex(_) => panic!(
+            "observable `{}` of an exclusion model reads a six-vertex read-out",
+            o.name
+        ),
+    }
+}
+
+/// The index of the read-out time among the model's times.
+pub(crate) fn time_index(r: &ExclusionRead) -> usize {
+    match *r {
+        ExclusionRead::Window(_, _, t, _)
+        | ExclusionRead::Position(_, t)
+        | ExclusionRead::Arrangement(t)
+        | ExclusionRead::InverseArrangement(t)
+        | ExclusionRead::Current(_, t)
+        | ExclusionRead::Height(_, t)
+        | ExclusionRead::Swapped(_, _, t)
+        | ExclusionRead::Attempted(_, _, t) => t,
+    }
+}
+
+/// The engine read-outs of one observable (one, or two for `attempted`, whose either direction
+/// counts); `n` is the number of sites of a segment or ring.
+pub(crate) fn readouts(o: &ObservableSpec, n: Option<usize>) -> Vec<Readout> {
+    let threshold = o.threshold.unwrap_or(1).max(1);
+    match *read_of(o) {
+        ExclusionRead::Window(from, to, ..) => vec![Readout::Window { from, to }],
+        ExclusionRead::Position(color, _) => vec![Readout::Positions { color }],
+        ExclusionRead::Arrangement(_) | ExclusionRead::InverseArrangement(_) => {
+            vec![Readout::Window {
+                from: 1,
+                to: n.unwrap_or(1) as i64,
+            }]
+        }
+        ExclusionRead::Current(bond, _) => vec![Readout::Current { bond, threshold }],
+        ExclusionRead::Height(site, _) => vec![Readout::Height { site, threshold }],
+        ExclusionRead::Swapped(a, b, _) => vec![Readout::Swapped { a, b }],
+        ExclusionRead::Attempted(a, b, _) => vec![
+            Readout::Attempted { from: a, onto: b },
+            Readout::Attempted { from: b, onto: a },
+        ],
+    }
+}
+
+/// Buffers a value may borrow.
+#[derive(Debug, Default)]
+pub(crate) struct Scratch {
+    set: Vec<usize>,
+    seq: Vec<u32>,
+}
+
+/// Reads observable `o` of model `model` from `readings` (the engine read-outs of one time, the
+/// observable's own starting at `first`): the one reading function of the family.
+pub(crate) fn read<'s>(
+    model: &ModelSpec,
+    o: &ObservableSpec,
+    readings: &[Reading],
+    first: usize,
+    scratch: &'s mut Scratch,
+) -> Value<'s> {
+    let number = |v: f64| Value::Number((v + o.shift) * o.scale);
+    let reading = readings.get(first);
+    let colors = || match reading {
+        Some(Reading::Colors(c)) => c.as_slice(),
+        _ => &[],
+    };
+    let count = || match reading {
+        Some(Reading::Count(v)) => *v as f64,
+        _ => 0.0,
+    };
+    let flag = |k: usize| matches!(readings.get(first + k), Some(Reading::Flag(true)));
+    match *read_of(o) {
+        ExclusionRead::Window(_, _, _, how) => {
+            let universe = match o.kind {
+                ValueKind::Set { universe } => universe,
+                ValueKind::Scalar { .. } | ValueKind::Event | ValueKind::Sequence { .. } => 0,
+            };
+            let s = &mut scratch.set;
+            set_elements(colors(), how, o.threshold, o.map, universe, model, s);
+            Value::Set(s)
+        }
+        ExclusionRead::Position(..) => number(match reading {
+            Some(Reading::Positions(p)) => p.first().copied().unwrap_or(0) as f64,
+            _ => 0.0,
+        }),
+        ExclusionRead::Arrangement(_) => {
+            let seq = &mut scratch.seq;
+            seq.clear();
+            seq.extend(colors().iter().map(|&x| model.to_user(x)));
+            Value::Sequence(seq)
+        }
+        ExclusionRead::InverseArrangement(_) => {
+            let c = colors();
+            let seq = &mut scratch.seq;
+            seq.clear();
+            seq.resize(c.len(), 0);
+            for (site, &x) in c.iter().enumerate() {
+                let class = model.to_user(x) as usize;
+                if (1..=c.len()).contains(&class) {
+                    seq[class - 1] = site as u32 + 1;
+                }
+            }
+            Value::Sequence(seq)
+        }
+        ExclusionRead::Current(..) | ExclusionRead::Height(..) => number(count()),
+        ExclusionRead::Swapped(..) => Value::Event(flag(0)),
+        ExclusionRead::Attempted(..) => Value::Event(flag(0) || flag(1)),
+    }
+}
+
+/// What the engine read-out `r` would report on a segment that went from `initial` to `now`, or
+/// `None` when it depends on the path (attempts) rather than the two arrangements.
+pub(crate) fn reading_of_arrangement(
+    r: &Readout,
+    initial: &[Color],
+    now: &[Color],
+) -> Option<Reading> {
+    let above = |c: &[Color], x: i64, t: Color| {
+        c.iter()
+            .skip(x.max(0) as usize)
+            .filter(|&&v| v >= t)
+            .count() as i64
+    };
+    let site = |c: &[Color], k: Color| c.iter().position(|&v| v == k);
+    Some(match *r {
+        Readout::Window { from, to } => {
+            Reading::Colors(now[(from - 1) as usize..to as usize].to_vec())
+        }
+        Readout::Positions { color } => Reading::Positions(
+            now.iter()
+                .enumerate()
+                .filter(|&(_, &v)| v == color)
+                .map(|(i, _)| i as i64 + 1)
+                .collect(),
+        ),
+        Readout::Permutation => return None,
+        Readout::Current { bond, threshold } => {
+            Reading::Count(above(now, bond, threshold) - above(initial, bond, threshold))
+        }
+        Readout::Height { site: x, threshold } => Reading::Count(above(now, x, threshold)),
+        Readout::Swapped { a, b } => {
+            let before = site(initial, a).unwrap_or(0) < site(initial, b).unwrap_or(0);
+            let after = site(now, a).unwrap_or(0) < site(now, b).unwrap_or(0);
+            Reading::Flag(before != after)
+        }
+        Readout::Attempted { .. } => return None,
+    })
+}
+
+fn set_read(k: RawSetKind) -> SetRead {
+    match k {
+        RawSetKind::Colors => SetRead::Colors,
+        RawSetKind::Positions => SetRead::Positions,
+    }
+}
+
+impl ExclusionSpec {
+    /// Number of sites of a segment or ring.
+    pub(crate) fn sites(&self) -> Option<usize> {
+        match self.lattice {
+            LatticeSpec::Segment(n) | LatticeSpec::Ring(n) => Some(n),
+            LatticeSpec::Line => None,
+        }
+    }
+
+    /// How many sites of the initial data hold engine color `col` (2 for a far-field color).
+    fn sites_holding(&self, col: Color) -> usize {
+        match &self.initial {
+            InitialSpec::Sites(s) => s.iter().filter(|&&x| x == col).count(),
+            InitialSpec::Line {
+                left, right, block, ..
+            } => {
+                if *left == col || *right == col {
+                    2
+                } else {
+                    block.iter().filter(|&&x| x == col).count()
+                }
+            }
+        }
+    }
+}
+
+impl ModelFamily for ExclusionSpec {
+    fn name(&self) -> &'static str {
+        "exclusion"
+    }
+
+    fn read_names(&self) -> &'static str {
+        "window, position, arrangement, inverse-arrangement, current, height, swapped, attempted"
+    }
+
+    fn resolve_read(
+        &self,
+        cx: &ReadContext,
+        raw: &RawRead,
+    ) -> Result<(ReadSpec, ValueKind), ScenarioError> {
+        let rp = cx.path;
+        let ck = cx.checker;
+        let int = ValueKind::Scalar { integer: true };
+        let n = self.sites().map(|n| n as i64);
+        let time_index = |t: f64| -> usize {
+            self.times
+                .iter()
+                .position(|&x| x == t)
+                .expect("times were collected from the observables")
+        };
+        let single = |p: &str, c: i64| -> Result<Color, ScenarioError> {
+            let col = cx.class(p, c)?;
+            let count = self.sites_holding(col);
+            if count != 1 {
+                return Err(cx.error(
+                    p,
+                    format!("class {c} must sit on exactly one site of the initial data to be followed; it sits on {}", if count > 1 { "several" } else { "none" }),
+                ));
+            }
+            Ok(col)
+        };
+        let (read, kind) = match raw {
+            RawRead::Window(w) => {
+                let p = format!("{rp}.window");
+                if w.from > w.to {
+                    return Err(cx.error(
+                        &format!("{p}.to"),
+                        format!("must be ≥ `from` ({}), got {}", w.from, w.to),
+                    ));
+                }
+                match n {
+                    Some(n) => {
+                        ck.int_in(&format!("{p}.from"), w.from, 1, n)?;
+                        ck.int_in(&format!("{p}.to"), w.to, 1, n)?;
+                    }
+                    None => {
+                        ck.int_in(&format!("{p}.from"), w.from, -MAX_SIDE, MAX_SIDE)?;
+                        ck.int_in(&format!("{p}.to"), w.to, -MAX_SIDE, MAX_SIDE)?;
+                        if w.to - w.from >= 1 << 16 {
+                            return Err(
+                                cx.error(&format!("{p}.to"), "a window holds at most 65536 sites")
+                            );
+                        }
+                    }
+                }
+                let len = (w.to - w.from + 1) as usize;
+                (
+                    ExclusionRead::Window(w.from, w.to, time_index(w.time), set_read(w.kind)),
+                    cx.set_kind(set_read(w.kind), len),
+                )
+            }
+            RawRead::Position(pr) => {
+                let c = single(&format!("{rp}.position.class"), pr.class)?;
+                (ExclusionRead::Position(c, time_index(pr.time)), int)
+            }
+            RawRead::Arrangement(t) | RawRead::InverseArrangement(t) => {
+                let inverse = matches!(raw, RawRead::InverseArrangement(_));
+                let Some(n) = n else {
+                    return Err(cx.error(rp, "an arrangement needs a segment or a ring"));
+                };
+                if !self.packed || i64::from(cx.user_max()) != n {
+                    return Err(cx.error(rp, "an arrangement needs initial data with distinct classes 1..n on the n sites (e.g. `packed`)"));
+                }
+                let ti = time_index(t.time);
+                let read = if inverse {
+                    ExclusionRead::InverseArrangement(ti)
+                } else {
+                    ExclusionRead::Arrangement(ti)
+                };
+                (read, ValueKind::Sequence { len: n as usize })
+            }
+            RawRead::Current(c) => {
+                let p = format!("{rp}.current.bond");
+                match (self.lattice, n) {
+                    (LatticeSpec::Segment(_), Some(n)) => ck.int_in(&p, c.bond, 1, n - 1)?,
+                    (_, Some(n)) => ck.int_in(&p, c.bond, 1, n)?,
+                    (_, None) => ck.int_in(&p, c.bond, -MAX_SIDE, MAX_SIDE)?,
+                };
+                (ExclusionRead::Current(c.bond, time_index(c.time)), int)
+            }
+            RawRead::Height(h) => {
+                let p = format!("{rp}.height");
+                if h.y.is_some() {
+                    return Err(cx.error(
+                        &format!("{p}.y"),
+                        "an exclusion height has no `y`; give `time`",
+                    ));
+                }
+                let Some(t) = h.time else {
+                    return Err(cx.error(&p, "an exclusion height needs `time`"));
+                };
+                match n {
+                    Some(n) => ck.int_in(&format!("{p}.x"), h.x, 0, n)?,
+                    None => ck.int_in(&format!("{p}.x"), h.x, -MAX_SIDE, MAX_SIDE)?,
+                };
+                (ExclusionRead::Height(h.x, time_index(t)), int)
+            }
+            RawRead::Swapped(pr) | RawRead::Attempted(pr) => {
+                let p = format!("{rp}.{}.classes", raw.name());
+                let a = single(&format!("{p}[0]"), pr.classes[0])?;
+                let b = single(&format!("{p}[1]"), pr.classes[1])?;
+                if a == b {
+                    return Err(cx.error(&p, "needs two different classes"));
+                }
+                let ti = time_index(pr.time);
+                let read = if matches!(raw, RawRead::Swapped(_)) {
+                    ExclusionRead::Swapped(a, b, ti)
+                } else {
+                    ExclusionRead::Attempted(a, b, ti)
+                };
+                (read, ValueKind::Event)
+            }
+            RawRead::Top(_)
+            | RawRead::Right(_)
+            | RawRead::Row(_)
+            | RawRead::Column(_)
+            | RawRead::ExitColumn(_) => return Err(cx.wrong_family(self, raw)),
+        };
+        Ok((ReadSpec::Exclusion(read), kind))
+    }
+
+    fn takes_threshold(&self, read: &ReadSpec) -> bool {
+        match read {
+            ReadSpec::Exclusion(r) => match r {
+                ExclusionRead::Window(_, _, _, how) => *how == SetRead::Positions,
+                ExclusionRead::Current(..) | ExclusionRead::Height(..) => true,
+                ExclusionRead::Position(..)
+                | ExclusionRead::Arrangement(_)
+                | ExclusionRead::InverseArrangement(_)
+                | ExclusionRead::Swapped(..)
+                | ExclusionRead::Attempted(..) => false,
+            },
+            ReadSpec::SixVertex(_) => false,
+        }
+    }
+
+    fn sampler<'a>(
+        &'a self,
+        model: &'a ModelSpec,
+        observables: Vec<&'a ObservableSpec>,
+    ) -> Result<Box<dyn UnitSampler + 'a>, String> {
+        Ok(Box::new(ExclusionUnit::new(model, self, observables)?))
+    }
+
+    fn exact_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String> {
+        let Some(n) = self.sites() else {
+            return Some(format!(
+                "model `{}` lives on the line; exact laws need a segment or a ring",
+                model.name
+            ));
+        };
+        if n > EXACT_EXCLUSION_SITES {
+            return Some(format!(
+                "model `{}` has {n} sites; exact laws are computed up to {EXACT_EXCLUSION_SITES}",
+                model.name
+            ));
+        }
+        let ring = matches!(self.lattice, LatticeSpec::Ring(_));
+        match read_of(o) {
+            ExclusionRead::Attempted(..) => Some(format!(
+                "observable `{}` depends on the path, not only on the arrangement at one time",
+                o.name
+            )),
+            ExclusionRead::Current(..) | ExclusionRead::Swapped(..) if ring => Some(format!(
+                "observable `{}` on a ring depends on the path, not only on the arrangement",
+                o.name
+            )),
+            ExclusionRead::Window(..)
+            | ExclusionRead::Position(..)
+            | ExclusionRead::Arrangement(_)
+            | ExclusionRead::InverseArrangement(_)
+            | ExclusionRead::Current(..)
+            | ExclusionRead::Height(..)
+            | ExclusionRead::Swapped(..) => None,
+        }
+    }
+
+    fn exact_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Result<ObservableLaw, String> {
+        let Process::Finite(p) = build(self)? else {
+            return Err("exact laws need a segment or a ring".into());
+        };
+        let solver = motley_exclusion::ExactSolver::new(&p).map_err(|x| x.to_string())?;
+        let law = solver
+            .law_at(
+                self.times[time_index(read_of(o))],
+                motley_exclusion::DEFAULT_TAIL,
+            )
+            .map_err(|x| x.to_string())?;
+        let initial = match &self.initial {
+            InitialSpec::Sites(c) => c.clone(),
+            InitialSpec::Line { .. } => Vec::new(),
+        };
+        let wanted = readouts(o, self.sites());
+        let mut scratch = Scratch::default();
+        let mut cells = Vec::with_capacity(law.entries().len());
+        for (arrangement, p) in law.entries() {
+            let readings = wanted
+                .iter()
+                .map(|r| reading_of_arrangement(r, &initial, arrangement))
+                .collect::<Option<Vec<Reading>>>()
+                .ok_or_else(|| format!("observable `{}` has no exact law", o.name))?;
+            cells.push((read(model, o, &readings, 0, &mut scratch).key(), *p));
+        }
+        Ok(ObservableLaw::collect(
+            cells,
+            law.error_bound() + 1e-14 * (1 + law.entries().len()) as f64,
+        ))
+    }
+
+    fn rational_law(&self, _: &ModelSpec, _: &ObservableSpec) -> Option<RationalLaw> {
+        None
+    }
+
+    fn cost_per_sample(&self) -> (f64, f64) {
+        let t = self.times.last().copied().unwrap_or(0.0);
+        let rate = self.p.value + self.q.value;
+        let (events, sites) = match self.lattice {
+            LatticeSpec::Segment(n) | LatticeSpec::Ring(n) => (n as f64 * rate * t, n as f64),
+            // The active region grows at speed at most about 2(p + q) on each side.
+            LatticeSpec::Line => {
+                let block = match &self.initial {
+                    InitialSpec::Line { block, .. } => block.len() as f64,
+                    InitialSpec::Sites(_) => 1.0,
+                };
+                let width = block + 4.0 * rate * t;
+                (0.5 * (block + width) * rate * t, width)
+            }
+        };
+        (events / EXCLUSION_RATE, sites * 16.0)
+    }
+
+    fn window_origin(&self, read: &ReadSpec) -> Option<i64> {
+        match read {
+            ReadSpec::Exclusion(ExclusionRead::Window(from, _, _, SetRead::Positions)) => {
+                Some(*from)
+            }
+            ReadSpec::Exclusion(_) | ReadSpec::SixVertex(_) => None,
+        }
+    }
+
+    fn profile_value(
+        &self,
+        profile: &str,
+        model: &ModelSpec,
+        o: &ObservableSpec,
+    ) -> Result<Option<f64>, String> {
+        let (ExclusionRead::Height(x, t), "tasep-step-count") = (read_of(o), profile) else {
+            return Ok(None);
+        };
+        let at = match &self.initial {
+            InitialSpec::Line {
+                left,
+                right,
+                block,
+                at,
+            } => {
+                let t = o.threshold.unwrap_or(1);
+                (*left >= t && *right < t && block.iter().all(|&c| c < t)).then_some(*at)
+            }
+            InitialSpec::Sites(_) => None,
+        };
+        let Some(at) = at else {
+            return Err(format!("`tasep-step-count` needs step data on the line (particles left of `at`, none from `at` on), but model \"{}\" of \"{}\" has other initial data", model.name, o.name));
+        };
+        let shape = TasepStep::asep(self.p.value, self.q.value)
+            .map_err(|e| format!("model \"{}\": {e}", model.name))?;
+        // Particles on sites < at: the count right of x is that of step data at 1 for the site
+        // x − (at − 1).
+        Ok(Some(
+            shape.particles_right_of((x - (at - 1)) as f64, self.times[*t]),
+        ))
+    }
+}

@@ -1,0 +1,311 @@
+//! The colored stochastic six-vertex model as a model family: its read-outs, their one reading
+//! function (shared by Monte Carlo and exact mode), its exact laws, cost and profile.
+
+use motley_colorblind::Color;
+use motley_reference::SixVertexStep;
+use motley_sixvertex::{exact_law, ratio, Outcome, Readout};
+
+use crate::error::ScenarioError;
+use crate::family::{ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value};
+use crate::raw::{RawRead, RawSetKind};
+use crate::read_set::set_elements;
+use crate::scenario::{
+    BoundarySpec, ModelSpec, ObservableSpec, ReadSpec, SetRead, SixVertexRead, SixVertexSpec,
+    ValueKind,
+};
+use crate::six_vertex_unit::{build, SixVertexUnit};
+
+/// Largest six-vertex rectangle (vertices) decided exactly in `auto` mode.
+pub const EXACT_SIX_VERTEX_VERTICES: usize = 30;
+/// Largest side of a six-vertex rectangle decided exactly in `auto` mode.
+pub const EXACT_SIX_VERTEX_SIDE: usize = 6;
+/// Vertices per second per thread assumed by the cost estimate (single core, this project's 2-core
+/// machine, release build; `cargo bench`, see the README's Performance section).
+pub const SIX_VERTEX_RATE: f64 = 1.5e8;
+
+/// What a six-vertex read-out looks at: one sample's read-out, or one outcome of the exact law
+/// (which knows the exits only; [`ModelFamily::exact_obstacle`] keeps other read-outs away).
+pub(crate) trait SixVertexView {
+    /// Colors leaving through the top, column 1 first.
+    fn top(&self) -> &[Color];
+    /// Colors leaving through the right side, row 1 first.
+    fn right(&self) -> &[Color];
+    /// Vertical edges just above row `y`.
+    fn row(&self, y: usize) -> Option<&[Color]>;
+    /// Horizontal edges just right of column `x`.
+    fn column(&self, x: usize) -> Option<&[Color]>;
+    /// Height query number `slot`.
+    fn height(&self, slot: usize) -> Option<u64>;
+}
+
+impl SixVertexView for Readout {
+    fn top(&self) -> &[Color] {
+        Readout::top(self)
+    }
+    fn right(&self) -> &[Color] {
+        Readout::right(self)
+    }
+    fn row(&self, y: usize) -> Option<&[Color]> {
+        self.horizontal_line(y)
+    }
+    fn column(&self, x: usize) -> Option<&[Color]> {
+        self.vertical_line(x)
+    }
+    fn height(&self, slot: usize) -> Option<u64> {
+        self.heights().get(slot).copied()
+    }
+}
+
+impl SixVertexView for Outcome {
+    fn top(&self) -> &[Color] {
+        &self.top
+    }
+    fn right(&self) -> &[Color] {
+        &self.right
+    }
+    fn row(&self, _: usize) -> Option<&[Color]> {
+        None
+    }
+    fn column(&self, _: usize) -> Option<&[Color]> {
+        None
+    }
+    fn height(&self, _: usize) -> Option<u64> {
+        None
+    }
+}
+
+/// The six-vertex read-out of an observable (validation resolved it into this family's own).
+pub(crate) fn read_of(o: &ObservableSpec) -> &SixVertexRead {
+    match &o.read {
+        ReadSpec::SixVertex(r) => r,
+        ReadSpec::Exclusion(_) => panic!(
+            "observable `{}` of a six-vertex model reads an exclusion read-out",
+            o.name
+        ),
+    }
+}
+
+/// Reads observable `o` of model `model` from `view`: the one reading function of the family.
+/// `height_slot` is the observable's height query, `scratch` a buffer the value may borrow.
+pub(crate) fn read<'s>(
+    model: &ModelSpec,
+    o: &ObservableSpec,
+    view: &impl SixVertexView,
+    height_slot: Option<usize>,
+    scratch: &'s mut Vec<usize>,
+) -> Value<'s> {
+    let universe = match o.kind {
+        ValueKind::Set { universe } => universe,
+        ValueKind::Scalar { .. } | ValueKind::Event | ValueKind::Sequence { .. } => 0,
+    };
+    let number = |v: f64| Value::Number((v + o.shift) * o.scale);
+    let (colors, how) = match *read_of(o) {
+        SixVertexRead::Top(how) => (view.top(), how),
+        SixVertexRead::Right(how) => (view.right(), how),
+        SixVertexRead::Row(y, how) => (view.row(y).unwrap_or(&[]), how),
+        SixVertexRead::Column(x, how) => (view.column(x).unwrap_or(&[]), how),
+        SixVertexRead::Height(..) => {
+            return number(height_slot.and_then(|s| view.height(s)).unwrap_or(0) as f64)
+        }
+        SixVertexRead::ExitColumn(c) => {
+            return number(view.top().iter().position(|&t| t == c).map_or(0, |p| p + 1) as f64)
+        }
+    };
+    set_elements(colors, how, o.threshold, o.map, universe, model, scratch);
+    Value::Set(scratch)
+}
+
+fn set_read(k: RawSetKind) -> SetRead {
+    match k {
+        RawSetKind::Colors => SetRead::Colors,
+        RawSetKind::Positions => SetRead::Positions,
+    }
+}
+
+impl ModelFamily for SixVertexSpec {
+    fn name(&self) -> &'static str {
+        "six-vertex"
+    }
+
+    fn read_names(&self) -> &'static str {
+        "top, right, row, column, height, exit-column"
+    }
+
+    fn resolve_read(
+        &self,
+        cx: &ReadContext,
+        raw: &RawRead,
+    ) -> Result<(ReadSpec, ValueKind), ScenarioError> {
+        let rp = cx.path;
+        let int = ValueKind::Scalar { integer: true };
+        let (read, kind) = match raw {
+            RawRead::Top(k) => (
+                SixVertexRead::Top(set_read(*k)),
+                cx.set_kind(set_read(*k), self.width),
+            ),
+            RawRead::Right(k) => (
+                SixVertexRead::Right(set_read(*k)),
+                cx.set_kind(set_read(*k), self.height),
+            ),
+            RawRead::Row(r) => {
+                let y = cx
+                    .checker
+                    .int_in(&format!("{rp}.row.y"), r.y, 0, self.height as i64)?;
+                (
+                    SixVertexRead::Row(y as usize, set_read(r.kind)),
+                    cx.set_kind(set_read(r.kind), self.width),
+                )
+            }
+            RawRead::Column(c) => {
+                let x = cx
+                    .checker
+                    .int_in(&format!("{rp}.column.x"), c.x, 0, self.width as i64)?;
+                (
+                    SixVertexRead::Column(x as usize, set_read(c.kind)),
+                    cx.set_kind(set_read(c.kind), self.height),
+                )
+            }
+            RawRead::Height(h) => {
+                let x = cx
+                    .checker
+                    .int_in(&format!("{rp}.height.x"), h.x, 0, self.width as i64)?;
+                let Some(y) = h.y else {
+                    return Err(cx.error(&format!("{rp}.height"), "a six-vertex height needs `y`"));
+                };
+                let y = cx
+                    .checker
+                    .int_in(&format!("{rp}.height.y"), y, 0, self.height as i64)?;
+                if h.time.is_some() {
+                    return Err(cx.error(
+                        &format!("{rp}.height.time"),
+                        "a six-vertex height has no `time` (rows play its part)",
+                    ));
+                }
+                (SixVertexRead::Height(x as usize, y as usize), int)
+            }
+            RawRead::ExitColumn(c) => (
+                SixVertexRead::ExitColumn(cx.class(&format!("{rp}.exit-column"), *c)?),
+                int,
+            ),
+            RawRead::Window(_)
+            | RawRead::Position(_)
+            | RawRead::Arrangement(_)
+            | RawRead::InverseArrangement(_)
+            | RawRead::Current(_)
+            | RawRead::Swapped(_)
+            | RawRead::Attempted(_) => return Err(cx.wrong_family(self, raw)),
+        };
+        Ok((ReadSpec::SixVertex(read), kind))
+    }
+
+    fn takes_threshold(&self, read: &ReadSpec) -> bool {
+        match read {
+            ReadSpec::SixVertex(r) => match r {
+                SixVertexRead::Top(how)
+                | SixVertexRead::Right(how)
+                | SixVertexRead::Row(_, how)
+                | SixVertexRead::Column(_, how) => *how == SetRead::Positions,
+                SixVertexRead::Height(..) => true,
+                SixVertexRead::ExitColumn(_) => false,
+            },
+            ReadSpec::Exclusion(_) => false,
+        }
+    }
+
+    fn sampler<'a>(
+        &'a self,
+        model: &'a ModelSpec,
+        observables: Vec<&'a ObservableSpec>,
+    ) -> Result<Box<dyn UnitSampler + 'a>, String> {
+        Ok(Box::new(SixVertexUnit::new(
+            model,
+            self,
+            observables,
+            false,
+        )?))
+    }
+
+    fn exact_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String> {
+        if self.width * self.height > EXACT_SIX_VERTEX_VERTICES
+            || self.width.max(self.height) > EXACT_SIX_VERTEX_SIDE
+        {
+            return Some(format!(
+                "model `{}` is {}×{}; exact laws are computed up to {} vertices with sides ≤ {}",
+                model.name,
+                self.width,
+                self.height,
+                EXACT_SIX_VERTEX_VERTICES,
+                EXACT_SIX_VERTEX_SIDE
+            ));
+        }
+        let fixed = |b: &BoundarySpec| match b {
+            BoundarySpec::Fixed(_) => true,
+            BoundarySpec::Bernoulli { .. } => false,
+        };
+        if !fixed(&self.left) || !fixed(&self.bottom) {
+            return Some(format!("model `{}` has a random boundary", model.name));
+        }
+        match read_of(o) {
+            SixVertexRead::Top(_) | SixVertexRead::Right(_) | SixVertexRead::ExitColumn(_) => None,
+            SixVertexRead::Row(..) | SixVertexRead::Column(..) | SixVertexRead::Height(..) => {
+                Some(format!(
+                    "observable `{}` reads inside the rectangle; exact laws cover the top and right exits",
+                    o.name
+                ))
+            }
+        }
+    }
+
+    fn exact_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Result<ObservableLaw, String> {
+        let engine = build(self)?;
+        let law = exact_law(self.b1.value, self.b2.value, engine.boundary())
+            .map_err(|e| e.to_string())?;
+        let mut scratch = Vec::new();
+        Ok(ObservableLaw::collect(
+            law.entries()
+                .iter()
+                .map(|(out, p)| (read(model, o, out, None, &mut scratch).key(), *p)),
+            1e-14 * (1 + law.len()) as f64,
+        ))
+    }
+
+    fn rational_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<RationalLaw> {
+        let (Some((n1, d1)), Some((n2, d2))) = (self.b1.rational, self.b2.rational) else {
+            return None;
+        };
+        let engine = build(self).ok()?;
+        let law = exact_law(ratio(n1, d1), ratio(n2, d2), engine.boundary()).ok()?;
+        let mut scratch = Vec::new();
+        Some(law.map(|out| read(model, o, out, None, &mut scratch).key()))
+    }
+
+    fn cost_per_sample(&self) -> (f64, f64) {
+        (
+            (self.width * self.height) as f64 / SIX_VERTEX_RATE,
+            (self.width * 40 + self.height * 16) as f64,
+        )
+    }
+
+    fn window_origin(&self, _: &ReadSpec) -> Option<i64> {
+        None
+    }
+
+    fn profile_value(
+        &self,
+        profile: &str,
+        model: &ModelSpec,
+        o: &ObservableSpec,
+    ) -> Result<Option<f64>, String> {
+        let (SixVertexRead::Height(x, y), "six-vertex-step-height") = (read_of(o), profile) else {
+            return Ok(None);
+        };
+        let step = matches!(&self.left, BoundarySpec::Fixed(c) if c.iter().all(|&c| c >= 1 && o.threshold.is_none_or(|t| c >= t)))
+            && matches!(&self.bottom, BoundarySpec::Fixed(c) if c.iter().all(|&c| c == 0 || o.threshold.is_some_and(|t| c < t)));
+        if !step {
+            return Err(format!("`six-vertex-step-height` needs the step boundary (a path on every left edge, none from below), but model \"{}\" of \"{}\" has other boundary data", model.name, o.name));
+        }
+        let shape = SixVertexStep::from_weights(self.b1.value, self.b2.value)
+            .map_err(|e| format!("model \"{}\": {e}", model.name))?;
+        Ok(Some(shape.height(*x as f64, *y as f64)))
+    }
+}
