@@ -36,6 +36,10 @@ pub const EXAMPLES: &[(&str, &str)] = &[
         "speed-process-pair",
         include_str!("../scenarios/speed-process-pair.yaml"),
     ),
+    (
+        "strongest-exit-table",
+        include_str!("../scenarios/strongest-exit-table.yaml"),
+    ),
 ];
 
 /// The text of example `name`.

@@ -76,6 +76,48 @@ fn packed_inverse_holds_exactly_and_by_monte_carlo() {
 }
 
 #[test]
+fn tables_and_means_decide_both_ways() {
+    let v = verdicts("strongest-exit-table", &[]);
+    let expected = [
+        ("exact-table", false, "exact"),
+        ("monte-carlo-table", false, "monte-carlo"),
+        ("wrong-table-exact", true, "exact"),
+        ("wrong-table-monte-carlo", true, "monte-carlo"),
+        ("exact-mean", false, "exact"),
+        ("monte-carlo-mean", false, "monte-carlo"),
+    ];
+    let expected: Vec<(String, bool, String)> = expected
+        .iter()
+        .map(|(id, r, by)| (id.to_string(), *r, by.to_string()))
+        .collect();
+    assert_eq!(v, expected);
+}
+
+/// A law computed in rationals against a table of fractions: the total variation is exactly 0.
+#[test]
+fn a_table_of_fractions_is_matched_exactly() {
+    let dir = tempfile::tempdir().unwrap();
+    let out = dir.path().join("t");
+    let path = scenario("strongest-exit-table");
+    run_ok(&[
+        "run",
+        path.to_str().unwrap(),
+        "--out",
+        out.to_str().unwrap(),
+        "--samples",
+        "2000",
+        "--quiet",
+    ]);
+    let v = comparable(&out);
+    let exact = &v["claims"][0]["exact"];
+    assert_eq!(exact["total_variation"].as_f64(), Some(0.0));
+    assert_eq!(exact["error_bound"].as_f64(), Some(0.0));
+    // b2 = 2/5 instead of 1/3: the first cell alone differs by 1/15, which is the whole distance.
+    let wrong = v["claims"][2]["exact"]["total_variation"].as_f64().unwrap();
+    assert!((wrong - 1.0 / 15.0).abs() < 1e-15, "{wrong}");
+}
+
+#[test]
 fn describe_only_scenarios_run() {
     for (name, samples) in [("second-third-swap", "2000"), ("step-height", "200")] {
         let v = verdicts(name, &["--samples", samples]);

@@ -9,6 +9,7 @@ use std::collections::BTreeMap;
 
 use motley_stats::{clopper_pearson_interval, wilson_interval};
 
+use crate::family::ValueKey;
 use crate::result::{Interval, Moments, Outcome, Series};
 
 /// Most points kept on an empirical CDF curve.
@@ -139,6 +140,16 @@ pub fn top_outcomes<K: Ord>(
 pub fn show_set(elements: &[usize]) -> String {
     let inner: Vec<String> = elements.iter().map(|e| e.to_string()).collect();
     format!("{{{}}}", inner.join(", "))
+}
+
+/// A value as the report prints it: `{1, 3}`, `(3 1 2)`, `yes`, or the number.
+pub fn show_value(k: &ValueKey) -> String {
+    match k {
+        ValueKey::Set(e) => show_set(e),
+        ValueKey::Sequence(q) => show_sequence(q),
+        ValueKey::Event(b) => (if *b { "yes" } else { "no" }).into(),
+        ValueKey::Number(x) => format!("{}", x.0),
+    }
 }
 
 /// `(3 1 2)`.

@@ -17,6 +17,7 @@
 
 use std::collections::BTreeMap;
 
+use motley_stats::{chi_square_goodness_of_fit, total_variation_to_law, ExactLaw};
 use motley_stats::{
     chi_square_homogeneity, compare_inclusion, detectable_probability_gap,
     detectable_total_variation, holm_bonferroni, kolmogorov_quantile, ks_one_sample, ks_two_sample,
@@ -27,9 +28,11 @@ use motley_stats::{
 
 use crate::accumulate::{mask_elements, Accumulator, SetCounts, EMPTY_SUMMARY};
 use crate::estimate::*;
+use crate::family::{Real, ValueKey};
 use crate::reference_law::{reference_cdf, reference_name};
+use crate::result::Outcome;
 use crate::result::{ClaimResult, Effect, Estimates, Series, Stated, TestResult};
-use crate::scenario::{ClaimKind, ClaimSpec, ReferenceSpec, Scenario};
+use crate::scenario::{ClaimKind, ClaimSpec, ReferenceSpec, Scenario, TableLaw};
 
 struct Family {
     tests: Vec<TestResult>,
@@ -427,6 +430,125 @@ fn tail_from_profile(
     })
 }
 
+/// The observed law of an accumulator as counts of values (`None` for pairs, and for sets whose
+/// joint law is not kept).
+fn value_counts(acc: &Accumulator) -> Option<CategoricalCounts<ValueKey>> {
+    let mut c = CategoricalCounts::new();
+    match acc {
+        Accumulator::Set(x) => {
+            for (m, n) in x.joint.as_ref()? {
+                c.add_count(ValueKey::Set(mask_elements(m)), *n);
+            }
+        }
+        Accumulator::Scalar(x) => {
+            for &v in &x.values {
+                c.add(ValueKey::Number(Real(v)));
+            }
+        }
+        Accumulator::Event(e) => {
+            c.add_count(ValueKey::Event(true), e.yes);
+            c.add_count(ValueKey::Event(false), e.n - e.yes);
+        }
+        Accumulator::Sequence(q) => {
+            for (k, n) in &q.counts {
+                c.add_count(ValueKey::Sequence(k.clone()), *n);
+            }
+        }
+        Accumulator::Pairs(_) => return None,
+    }
+    Some(c)
+}
+
+/// `law-of` against an explicit table: chi-square goodness of fit (cells with expected count < 5
+/// pooled, common practice; an outcome the table excludes rejects outright), total variation to
+/// the table as the effect (McDiarmid bound, as for two samples).
+fn law_of_table(
+    s: &Scenario,
+    label: &str,
+    acc: &Accumulator,
+    t: &TableLaw,
+    fam: &mut Family,
+    est: &mut Estimates,
+) -> Option<Effect> {
+    let observed = value_counts(acc)?;
+    let n = observed.total();
+    let law = ExactLaw::new(t.cells.clone()).ok()?;
+    let r = chi_square_goodness_of_fit(&observed, &law, &ChiSquareOptions::default()).ok()?;
+    fam.push(
+        "chi-square goodness of fit to the table",
+        r.statistic,
+        Some(r.dof as f64),
+        r.p_value,
+        format!(
+            "{} outcomes; {} rare ones pooled into one cell (expected count < 5, common practice); {} cells compared",
+            r.cells, r.pooled_cells, r.tested_cells
+        ),
+    );
+    let tv = total_variation_to_law(&observed, &law, s.alpha).ok()?;
+    // One sample against a known law: the variance of a cell's frequency is half that of a
+    // difference of two samples of the same size, so the two-sample figure shrinks by √2.
+    let detect = detectable_total_variation(n, n, r.tested_cells.max(2), s.alpha, s.power)
+        .ok()
+        .flatten()
+        .map_or(1.0, |d| d / std::f64::consts::SQRT_2);
+    est.top_outcomes.push(top_values(&observed, n, label));
+    Some(Effect {
+        measure: "total variation to the table".into(),
+        estimate: tv.estimate,
+        upper_bound: tv.upper_bound,
+        detectable: detect.min(1.0),
+    })
+}
+
+/// The likeliest outcomes of observed counts, for the report.
+fn top_values(c: &CategoricalCounts<ValueKey>, n: u64, _label: &str) -> Vec<Outcome> {
+    let mut m = BTreeMap::new();
+    for (k, v) in c.sorted_cells() {
+        m.insert(k.clone(), v);
+    }
+    top_outcomes(&m, n, 20, show_value)
+}
+
+/// `mean`: the sample mean with a normal (large-sample) interval; against a stated value, the
+/// z-test of the mean (two-sided; the sample standard deviation stands in for the true one).
+fn mean_of(
+    s: &Scenario,
+    label: &str,
+    v: &[f64],
+    equals: Option<f64>,
+    fam: &mut Family,
+    est: &mut Estimates,
+) -> Option<Effect> {
+    let m = moments(label, v);
+    est.ecdf.push(ecdf_series(label, v, s.alpha));
+    est.moments.push(m.clone());
+    let m0 = equals?;
+    let n = m.count.max(1) as f64;
+    let se = m.sd / n.sqrt();
+    let gap = (m.mean - m0).abs();
+    let (stat, p) = if se > 0.0 {
+        (gap / se, 2.0 * motley_stats::normal_sf(gap / se))
+    } else if gap == 0.0 {
+        (0.0, 1.0)
+    } else {
+        (f64::INFINITY, 0.0)
+    };
+    fam.push(
+        &format!("z-test of the mean against {m0}"),
+        stat,
+        None,
+        p.min(1.0),
+        "large-sample normal approximation; statistic: |mean − stated| / standard error".into(),
+    );
+    let z = normal_upper_quantile(s.alpha / 2.0);
+    Some(Effect {
+        measure: "|mean − stated value|".into(),
+        estimate: gap,
+        upper_bound: gap + z * se,
+        detectable: (z + normal_upper_quantile(1.0 - s.power)) * se,
+    })
+}
+
 fn accs<'a>(
     slots: &'a [(crate::unit::Slot, Accumulator)],
     sl: &crate::unit::Slot,
@@ -462,6 +584,7 @@ pub fn evaluate(
                 .collect(),
         ),
         ClaimKind::Joint(a, b, _) => ("joint", vec![name(*a).into(), name(*b).into()]),
+        ClaimKind::Mean(a, _) => ("mean", vec![name(*a).into()]),
     };
     let labels: [&str; 2] = [
         observables.first().map(|s| s.as_str()).unwrap_or(""),
@@ -543,6 +666,14 @@ pub fn evaluate(
                     .window_origin(&pb.read)
                     .unwrap_or(1);
                 effect = tail_from_profile(s, labels, &x.values, p, from, &mut fam, &mut est);
+            }
+        }
+        ClaimKind::LawOf(_, ReferenceSpec::Table(t)) => {
+            effect = law_of_table(s, labels[0], accs(slots, &sl[0]), t, &mut fam, &mut est);
+        }
+        ClaimKind::Mean(_, equals) => {
+            if let Accumulator::Scalar(x) = accs(slots, &sl[0]) {
+                effect = mean_of(s, labels[0], &x.values, *equals, &mut fam, &mut est);
             }
         }
         ClaimKind::LawOf(_, r) => {
@@ -650,8 +781,22 @@ pub fn evaluate(
             }
             _ => None,
         },
+        ClaimKind::Mean(_, Some(m0)) => match first {
+            Accumulator::Scalar(x) if !x.values.is_empty() => {
+                let m = moments("", &x.values);
+                Some(Stated {
+                    role: "equals".into(),
+                    value: *m0,
+                    estimate: m.mean,
+                    difference: m.mean - m0,
+                    half_width: z * m.sd / (m.count as f64).sqrt(),
+                })
+            }
+            _ => None,
+        },
         ClaimKind::Probability(_, None)
         | ClaimKind::Describe(_, _, None)
+        | ClaimKind::Mean(_, None)
         | ClaimKind::SameLaw(..)
         | ClaimKind::LawOf(..)
         | ClaimKind::Series(_)
@@ -684,6 +829,9 @@ fn verdict(s: &Scenario, c: &ClaimSpec, rejected: bool, effect: &Option<Effect>)
     }
     if matches!(c.kind, ClaimKind::Probability(_, None)) {
         return "no stated value: estimate with intervals only".into();
+    }
+    if matches!(c.kind, ClaimKind::Mean(_, None)) {
+        return "no stated value: the mean with its interval only".into();
     }
     if rejected {
         return format!("REJECTED at α = {}", s.alpha);

@@ -24,7 +24,7 @@ pub fn reference_moments(r: &ReferenceSpec) -> Option<(f64, f64)> {
         // decay like exp(−c|s|^(3/2)) or faster; Tracy and Widom 1994, 1996).
         ReferenceSpec::TracyWidomGue | ReferenceSpec::TracyWidomGoe => (-12.0, 10.0),
         ReferenceSpec::SixVertexExitSpeed(k) => (1.0 / k, k),
-        ReferenceSpec::TailFromProfile(_) => return None,
+        ReferenceSpec::TailFromProfile(_) | ReferenceSpec::Table(_) => return None,
     };
     let n = 4000;
     let h = (b - a) / n as f64;

@@ -8,7 +8,7 @@
 
 use std::collections::BTreeMap;
 
-use crate::estimate::{show_sequence, show_set};
+use crate::estimate::show_value;
 use crate::family::{ObservableLaw, RationalLaw, ValueKey};
 use crate::result::{ClaimResult, Estimates, ExactResult, Interval, Moments, Outcome, Stated};
 use crate::scenario::*;
@@ -40,22 +40,13 @@ fn observable_law(s: &Scenario, o: usize) -> Result<ObservableLaw, String> {
     m.kind.family().exact_law(m, obs)
 }
 
-fn describe_key(k: &ValueKey) -> String {
-    match k {
-        ValueKey::Set(e) => show_set(e),
-        ValueKey::Sequence(q) => show_sequence(q),
-        ValueKey::Event(b) => (if *b { "yes" } else { "no" }).into(),
-        ValueKey::Number(x) => format!("{}", x.0),
-    }
-}
-
 fn top(cells: &[(ValueKey, f64)]) -> Vec<Outcome> {
     let mut v: Vec<&(ValueKey, f64)> = cells.iter().collect();
     v.sort_by(|a, b| b.1.total_cmp(&a.1).then_with(|| a.0.cmp(&b.0)));
     v.into_iter()
         .take(20)
         .map(|(k, p)| Outcome {
-            value: describe_key(k),
+            value: show_value(k),
             probability: *p,
         })
         .collect()
@@ -178,6 +169,59 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 false,
             )
         }
+        ClaimKind::LawOf(a, ReferenceSpec::Table(t)) => {
+            let l = observable_law(s, *a)?;
+            let rational = match (rational_law(s, *a), &t.rational) {
+                (Some(ra), Some(rt)) => {
+                    let mut m: BTreeMap<&ValueKey, num_rational::BigRational> = BTreeMap::new();
+                    for (k, p) in ra.entries() {
+                        *m.entry(k).or_default() += p;
+                    }
+                    for ((k, _), p) in t.cells.iter().zip(rt) {
+                        *m.entry(k).or_default() -= p;
+                    }
+                    let sum: num_rational::BigRational =
+                        m.into_values().map(|d| num_traits::Signed::abs(&d)).sum();
+                    Some(num_traits_to_f64(
+                        &(sum / num_rational::BigRational::from_integer(2.into())),
+                    ))
+                }
+                _ => None,
+            };
+            let d = rational.unwrap_or_else(|| tv(&l.cells, &t.cells));
+            est.top_outcomes.push(top(&l.cells));
+            (
+                "law-of",
+                vec![name(*a)],
+                Some(d),
+                None,
+                l.error,
+                l.cells.len(),
+                rational.is_some(),
+            )
+        }
+        ClaimKind::Mean(a, equals) => {
+            let l = observable_law(s, *a)?;
+            let xs = scalar_cells(&l.cells);
+            let mean: f64 = xs.iter().map(|(x, p)| x * p).sum();
+            let var: f64 = xs.iter().map(|(x, p)| (x - mean) * (x - mean) * p).sum();
+            est.moments.push(Moments {
+                label: name(*a),
+                count: 0,
+                mean,
+                sd: var.sqrt(),
+            });
+            let scale = xs.iter().map(|(x, _)| x.abs()).fold(0.0, f64::max);
+            (
+                "mean",
+                vec![name(*a)],
+                equals.map(|m0| (mean - m0).abs()),
+                None,
+                l.error * scale.max(1.0),
+                l.cells.len(),
+                false,
+            )
+        }
         ClaimKind::LawOf(a, r) => {
             let l = observable_law(s, *a)?;
             let f = crate::reference_law::reference_cdf(r).ok_or("no reference CDF")?;
@@ -235,6 +279,13 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             difference: p - v,
             half_width: 0.0,
         }),
+        ClaimKind::Mean(_, Some(v)) => est.moments.first().map(|m| Stated {
+            role: "equals".into(),
+            value: *v,
+            estimate: m.mean,
+            difference: m.mean - v,
+            half_width: 0.0,
+        }),
         ClaimKind::Describe(_, _, Some(v)) => est.moments.first().map(|m| Stated {
             role: "limit".into(),
             value: *v,
@@ -243,6 +294,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             half_width: 0.0,
         }),
         ClaimKind::Probability(_, None)
+        | ClaimKind::Mean(_, None)
         | ClaimKind::Describe(_, _, None)
         | ClaimKind::SameLaw(..)
         | ClaimKind::LawOf(..)
@@ -257,6 +309,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
     let rejected = discrepancy.is_some_and(|d| d > tolerance);
     let verdict = match (kind, discrepancy) {
         ("describe", _) => "no claim: exact law shown".to_string(),
+        ("mean", None) => "no stated value: exact mean shown".to_string(),
         (_, None) => "no stated value: exact probability shown".to_string(),
         (_, Some(d)) if rejected => format!(
             "REJECTED exactly: the exact discrepancy is {d:.6e} (tolerance {tolerance:.1e})"

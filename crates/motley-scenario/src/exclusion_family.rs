@@ -12,13 +12,36 @@ use motley_reference::TasepStep;
 use crate::checker::MAX_SIDE;
 use crate::error::ScenarioError;
 use crate::exclusion_unit::{build, ExclusionUnit, Process};
-use crate::family::{ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value};
+use crate::family::{
+    ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value, ValueBuffers,
+};
 use crate::raw::{RawRead, RawSetKind};
 use crate::read_set::set_elements;
 use crate::scenario::{
-    ExclusionRead, ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, ReadSpec,
-    SetRead, ValueKind,
+    ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, ReadSpec, SetRead,
+    ValueKind,
 };
+
+/// The read-outs of an exclusion process; the last field is the index of the read-out time.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum ExclusionRead {
+    /// Sites `from..=to`.
+    Window(i64, i64, usize, SetRead),
+    /// Site of a color.
+    Position(Color, usize),
+    /// The arrangement (user classes by site).
+    Arrangement(usize),
+    /// The inverse arrangement.
+    InverseArrangement(usize),
+    /// Net current of colors ≥ threshold through bond `(b, b+1)`.
+    Current(i64, usize),
+    /// Height at site `x` (paths at sites `> x`, colors ≥ threshold).
+    Height(i64, usize),
+    /// Two colors in the opposite order.
+    Swapped(Color, Color, usize),
+    /// One of two colors attempted a jump onto the other.
+    Attempted(Color, Color, usize),
+}
 
 /// Largest segment or ring decided exactly.
 pub const EXACT_EXCLUSION_SITES: usize = 7;
@@ -74,13 +97,6 @@ pub(crate) fn readouts(o: &ObservableSpec, n: Option<usize>) -> Vec<Readout> {
     }
 }
 
-/// Buffers a value may borrow.
-#[derive(Debug, Default)]
-pub(crate) struct Scratch {
-    set: Vec<usize>,
-    seq: Vec<u32>,
-}
-
 /// Reads observable `o` of model `model` from `readings` (the engine read-outs of one time, the
 /// observable's own starting at `first`): the one reading function of the family.
 pub(crate) fn read<'s>(
@@ -88,9 +104,9 @@ pub(crate) fn read<'s>(
     o: &ObservableSpec,
     readings: &[Reading],
     first: usize,
-    scratch: &'s mut Scratch,
+    scratch: &'s mut ValueBuffers,
 ) -> Value<'s> {
-    let number = |v: f64| Value::Number((v + o.shift) * o.scale);
+    let number = |v: f64| Value::Number(o.number(v));
     let reading = readings.get(first);
     let colors = || match reading {
         Some(Reading::Colors(c)) => c.as_slice(),
@@ -116,14 +132,14 @@ pub(crate) fn read<'s>(
             _ => 0.0,
         }),
         ExclusionRead::Arrangement(_) => {
-            let seq = &mut scratch.seq;
+            let seq = &mut scratch.sequence;
             seq.clear();
             seq.extend(colors().iter().map(|&x| model.to_user(x)));
             Value::Sequence(seq)
         }
         ExclusionRead::InverseArrangement(_) => {
             let c = colors();
-            let seq = &mut scratch.seq;
+            let seq = &mut scratch.sequence;
             seq.clear();
             seq.resize(c.len(), 0);
             for (site, &x) in c.iter().enumerate() {
@@ -342,7 +358,8 @@ impl ModelFamily for ExclusionSpec {
             | RawRead::Right(_)
             | RawRead::Row(_)
             | RawRead::Column(_)
-            | RawRead::ExitColumn(_) => return Err(cx.wrong_family(self, raw)),
+            | RawRead::ExitColumn(_)
+            | RawRead::ExitPermutation(_) => return Err(cx.wrong_family(self, raw)),
         };
         Ok((ReadSpec::Exclusion(read), kind))
     }
@@ -419,7 +436,7 @@ impl ModelFamily for ExclusionSpec {
             InitialSpec::Line { .. } => Vec::new(),
         };
         let wanted = readouts(o, self.sites());
-        let mut scratch = Scratch::default();
+        let mut scratch = ValueBuffers::default();
         let mut cells = Vec::with_capacity(law.entries().len());
         for (arrangement, p) in law.entries() {
             let readings = wanted

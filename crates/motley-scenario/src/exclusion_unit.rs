@@ -5,8 +5,8 @@ use motley_exclusion::{
     FiniteLattice, FiniteProcess, FiniteSystem, LineData, LineProcess, Rates, ReadoutPlan,
 };
 
-use crate::exclusion_family::{read, read_of, readouts, time_index, Scratch};
-use crate::family::{UnitSampler, Value};
+use crate::exclusion_family::{read, read_of, readouts, time_index};
+use crate::family::{UnitSampler, Value, ValueBuffers};
 use crate::scenario::{ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec};
 
 /// The engine of an exclusion spec.
@@ -59,7 +59,7 @@ pub(crate) struct ExclusionUnit<'a> {
     observables: Vec<&'a ObservableSpec>,
     /// First engine read-out of each observable.
     first: Vec<usize>,
-    scratch: Scratch,
+    scratch: ValueBuffers,
 }
 
 impl<'a> ExclusionUnit<'a> {
@@ -88,7 +88,7 @@ impl<'a> ExclusionUnit<'a> {
             spec,
             observables,
             first,
-            scratch: Scratch::default(),
+            scratch: ValueBuffers::default(),
         })
     }
 }

@@ -44,6 +44,16 @@ impl Value<'_> {
     }
 }
 
+/// Buffers a [`Value`] may borrow, kept by a reader between samples so that reading allocates
+/// nothing once warm.
+#[derive(Debug, Default)]
+pub struct ValueBuffers {
+    /// A set's elements.
+    pub set: Vec<usize>,
+    /// A sequence.
+    pub sequence: Vec<u32>,
+}
+
 /// A number ordered by [`f64::total_cmp`], so that values can key a law.
 #[derive(Debug, Clone, Copy)]
 pub struct Real(pub f64);
@@ -54,6 +64,12 @@ impl PartialEq for Real {
     }
 }
 impl Eq for Real {}
+impl std::hash::Hash for Real {
+    fn hash<H: std::hash::Hasher>(&self, state: &mut H) {
+        // Equal under `total_cmp` exactly when the bits are equal.
+        self.0.to_bits().hash(state);
+    }
+}
 impl PartialOrd for Real {
     fn partial_cmp(&self, other: &Self) -> Option<std::cmp::Ordering> {
         Some(self.cmp(other))
@@ -66,7 +82,7 @@ impl Ord for Real {
 }
 
 /// An owned [`Value`], ordered: an outcome of an exact law.
-#[derive(Debug, Clone, PartialEq, Eq, PartialOrd, Ord)]
+#[derive(Debug, Clone, PartialEq, Eq, PartialOrd, Ord, Hash)]
 pub enum ValueKey {
     /// A set: its elements, increasing.
     Set(Vec<usize>),

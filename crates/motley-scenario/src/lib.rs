@@ -61,6 +61,7 @@ pub mod scenario;
 mod six_vertex_family;
 mod six_vertex_unit;
 mod suggest;
+mod table_law;
 pub mod unit;
 pub mod validate;
 mod validate_series;

@@ -29,7 +29,10 @@ fn claim_observables(kind: &ClaimKind) -> Vec<usize> {
     match kind {
         ClaimKind::SameLaw(a, b) => vec![*a, *b],
         ClaimKind::LawOf(a, ReferenceSpec::TailFromProfile(b)) => vec![*a, *b],
-        ClaimKind::LawOf(a, _) | ClaimKind::Probability(a, _) | ClaimKind::Describe(a, ..) => {
+        ClaimKind::LawOf(a, _)
+        | ClaimKind::Probability(a, _)
+        | ClaimKind::Describe(a, ..)
+        | ClaimKind::Mean(a, _) => {
             vec![*a]
         }
         ClaimKind::Series(sr) => sr.observables.clone(),

@@ -230,6 +230,10 @@ pub struct RawObservable {
     /// Add this to a scalar before scaling: the value becomes `(value + shift) × scale`.
     #[serde(default)]
     pub shift: Option<f64>,
+    /// Raise this base to the number (after `shift` and `scale`): the value becomes
+    /// `base^((value + shift) × scale)`, e.g. `q^H` for a q-moment.
+    #[serde(default)]
+    pub base: Option<f64>,
 }
 
 /// `map:` values.
@@ -270,6 +274,8 @@ pub enum RawRead {
     Height(RawHeightRead),
     /// Six-vertex: the column where a color leaves the top (0 if it leaves through the right).
     ExitColumn(i64),
+    /// Six-vertex: the exit permutation (every boundary edge a distinct color 1 … W + H).
+    ExitPermutation(RawPermutationRead),
     /// Exclusion: sites `from..=to` at `time`.
     Window(RawWindowRead),
     /// Exclusion: the site of a class at `time`.
@@ -287,6 +293,24 @@ pub enum RawRead {
 }
 
 impl RawRead {
+    /// The read-out's time, for the read-outs that take one.
+    pub fn time(&self) -> Option<f64> {
+        match self {
+            RawRead::Height(h) => h.time,
+            RawRead::Window(w) => Some(w.time),
+            RawRead::Position(p) => Some(p.time),
+            RawRead::Arrangement(t) | RawRead::InverseArrangement(t) => Some(t.time),
+            RawRead::Current(c) => Some(c.time),
+            RawRead::Swapped(p) | RawRead::Attempted(p) => Some(p.time),
+            RawRead::Top(_)
+            | RawRead::Right(_)
+            | RawRead::Row(_)
+            | RawRead::Column(_)
+            | RawRead::ExitColumn(_)
+            | RawRead::ExitPermutation(_) => None,
+        }
+    }
+
     /// The read-out's key in files.
     pub fn name(&self) -> &'static str {
         match self {
@@ -296,6 +320,7 @@ impl RawRead {
             RawRead::Column(_) => "column",
             RawRead::Height(_) => "height",
             RawRead::ExitColumn(_) => "exit-column",
+            RawRead::ExitPermutation(_) => "exit-permutation",
             RawRead::Window(_) => "window",
             RawRead::Position(_) => "position",
             RawRead::Arrangement(_) => "arrangement",
@@ -305,6 +330,16 @@ impl RawRead {
             RawRead::Attempted(_) => "attempted",
         }
     }
+}
+
+/// `exit-permutation:` values.
+#[derive(Debug, Clone, Copy, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RawPermutationRead {
+    /// The color leaving through each exit, exits in order.
+    Colors,
+    /// The exit of each color, colors in order.
+    Exits,
 }
 
 /// `row:` keys.
@@ -426,6 +461,9 @@ pub struct RawClaim {
     /// No claim: the joint law of two numbers of one model.
     #[serde(default)]
     pub joint: Option<[String; 2]>,
+    /// The mean of a number, optionally against a stated value.
+    #[serde(default)]
+    pub mean: Option<RawMean>,
     /// With `describe` of a number or a `series` of numbers: a reference law drawn beside it
     /// (shown, not tested); with `joint`: a joint limit law.
     #[serde(default)]
@@ -449,6 +487,29 @@ pub struct RawSeries {
     /// The parameter's name (default `t`).
     #[serde(default)]
     pub axis: Option<String>,
+}
+
+/// `mean:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawMean {
+    /// The number.
+    pub observable: String,
+    /// A stated value to test against.
+    #[serde(default)]
+    pub equals: Option<f64>,
+}
+
+/// A value in an explicit law: a number, a yes/no, or a list of integers (a set or a sequence).
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(untagged)]
+pub enum RawTableValue {
+    /// A yes/no, for an event.
+    Flag(bool),
+    /// A number.
+    Number(f64),
+    /// A set's elements or a sequence.
+    List(Vec<i64>),
 }
 
 /// `law-of:` keys.
@@ -482,6 +543,8 @@ pub enum RawReference {
     SpeedProcessPair,
     /// The limiting exit speed X/y of the six-vertex second-class path under the step boundary.
     SixVertexExitSpeed(RawWeights),
+    /// An explicit law: `[value, probability]` pairs, probabilities as decimals or fractions.
+    Table(Vec<(RawTableValue, RawNumber)>),
 }
 
 /// `six-vertex-exit-speed:` keys.

@@ -122,6 +122,28 @@ pub(crate) fn observable(
             s
         }
     };
+    let base = match o.base {
+        None => None,
+        Some(b) => {
+            if !matches!(kind, ValueKind::Scalar { .. }) {
+                return Err(ck.error(
+                    &format!("{path}.base"),
+                    format!(
+                        "a base applies to numbers, but this observable is {}",
+                        kind.describe()
+                    ),
+                ));
+            }
+            if !b.is_finite() || b <= 0.0 {
+                return Err(ck.error(
+                    &format!("{path}.base"),
+                    format!("must be a finite positive number, got {b}"),
+                ));
+            }
+            kind = ValueKind::Scalar { integer: false };
+            Some(b)
+        }
+    };
     Ok(ObservableSpec {
         name: name.to_string(),
         model: mi,
@@ -130,6 +152,7 @@ pub(crate) fn observable(
         map,
         scale,
         shift,
+        base,
         kind,
     })
 }

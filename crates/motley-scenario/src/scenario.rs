@@ -236,43 +236,8 @@ pub enum ReadSpec {
     Exclusion(ExclusionRead),
 }
 
-/// The read-outs of a six-vertex rectangle.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum SixVertexRead {
-    /// Edges leaving the top.
-    Top(SetRead),
-    /// Edges leaving the right side.
-    Right(SetRead),
-    /// Vertical edges above row `y` (0: the bottom boundary).
-    Row(usize, SetRead),
-    /// Horizontal edges right of column `x` (0: the left boundary).
-    Column(usize, SetRead),
-    /// The height function `H(x, y)`.
-    Height(usize, usize),
-    /// The column where a color leaves the top (0 when it leaves through the right).
-    ExitColumn(Color),
-}
-
-/// The read-outs of an exclusion process; the last field is the index of the read-out time.
-#[derive(Debug, Clone, Copy, PartialEq, Eq)]
-pub enum ExclusionRead {
-    /// Sites `from..=to`.
-    Window(i64, i64, usize, SetRead),
-    /// Site of a color.
-    Position(Color, usize),
-    /// The arrangement (user classes by site).
-    Arrangement(usize),
-    /// The inverse arrangement.
-    InverseArrangement(usize),
-    /// Net current of colors ≥ threshold through bond `(b, b+1)`.
-    Current(i64, usize),
-    /// Height at site `x` (paths at sites `> x`, colors ≥ threshold).
-    Height(i64, usize),
-    /// Two colors in the opposite order.
-    Swapped(Color, Color, usize),
-    /// One of two colors attempted a jump onto the other.
-    Attempted(Color, Color, usize),
-}
+pub use crate::exclusion_family::ExclusionRead;
+pub use crate::six_vertex_family::SixVertexRead;
 
 /// An observable.
 #[derive(Debug, Clone)]
@@ -291,8 +256,31 @@ pub struct ObservableSpec {
     pub scale: f64,
     /// Added to scalars before the factor.
     pub shift: f64,
+    /// Raised to the shifted and scaled number, when given.
+    pub base: Option<f64>,
     /// Kind of value.
     pub kind: ValueKind,
+}
+
+impl ObservableSpec {
+    /// A raw number of a read-out turned into this observable's value: `(x + shift) × scale`,
+    /// then `base` raised to it when a base is given.
+    pub fn number(&self, x: f64) -> f64 {
+        let v = (x + self.shift) * self.scale;
+        match self.base {
+            Some(b) => b.powf(v),
+            None => v,
+        }
+    }
+}
+
+/// An explicit law of an observable: outcomes with probabilities (sorted by outcome, each once).
+#[derive(Debug, Clone, PartialEq)]
+pub struct TableLaw {
+    /// `(outcome, probability)`.
+    pub cells: Vec<(crate::family::ValueKey, f64)>,
+    /// The same probabilities in rationals, when every one was written as a fraction or integer.
+    pub rational: Option<Vec<num_rational::BigRational>>,
 }
 
 /// A reference law.
@@ -311,6 +299,8 @@ pub enum ReferenceSpec {
     /// Exit speed of the six-vertex second-class path: P(v > s) = (κ − √(κs))/(κ − 1) on
     /// [1/κ, κ], κ > 1.
     SixVertexExitSpeed(f64),
+    /// An explicit law given in the file.
+    Table(TableLaw),
 }
 
 /// What a claim says.
@@ -328,6 +318,8 @@ pub enum ClaimKind {
     Series(SeriesSpec),
     /// No claim: the joint law of two numbers of one model, optionally beside a limit law.
     Joint(usize, usize, Option<JointReference>),
+    /// The mean of a number, optionally equal to a value.
+    Mean(usize, Option<f64>),
 }
 
 /// A `series` claim: observables indexed by a parameter (a time, a size, a position).

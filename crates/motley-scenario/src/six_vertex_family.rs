@@ -6,14 +6,46 @@ use motley_reference::SixVertexStep;
 use motley_sixvertex::{exact_law, ratio, Outcome, Readout};
 
 use crate::error::ScenarioError;
-use crate::family::{ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value};
-use crate::raw::{RawRead, RawSetKind};
+use crate::family::{
+    ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value, ValueBuffers,
+};
+use crate::raw::{RawPermutationRead, RawRead, RawSetKind};
 use crate::read_set::set_elements;
 use crate::scenario::{
-    BoundarySpec, ModelSpec, ObservableSpec, ReadSpec, SetRead, SixVertexRead, SixVertexSpec,
-    ValueKind,
+    BoundarySpec, ModelSpec, ObservableSpec, ReadSpec, SetRead, SixVertexSpec, ValueKind,
 };
 use crate::six_vertex_unit::{build, SixVertexUnit};
+
+/// The read-outs of a six-vertex rectangle.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SixVertexRead {
+    /// Edges leaving the top.
+    Top(SetRead),
+    /// Edges leaving the right side.
+    Right(SetRead),
+    /// Vertical edges above row `y` (0: the bottom boundary).
+    Row(usize, SetRead),
+    /// Horizontal edges right of column `x` (0: the left boundary).
+    Column(usize, SetRead),
+    /// The height function `H(x, y)`.
+    Height(usize, usize),
+    /// The column where a color leaves the top (0 when it leaves through the right).
+    ExitColumn(Color),
+    /// The exit permutation of a boundary carrying colors 1 … W + H once each.
+    ExitPermutation(PermutationRead),
+}
+
+/// Which way an exit permutation is read. Entrances and exits are numbered counterclockwise from
+/// the bottom-right corner: entrance k ≤ W is the bottom edge of column W + 1 − k, entrance W + y
+/// the left edge of row y; exit y ≤ H is the right edge of row y, exit H + k the top edge of column
+/// W + 1 − k.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum PermutationRead {
+    /// The color leaving through each exit, exits in order (σ⁻¹ when color k enters at entrance k).
+    ColorsByExit,
+    /// The exit each color 1 … W + H leaves through, colors in order (σ).
+    ExitsByColor,
+}
 
 /// Largest six-vertex rectangle (vertices) decided exactly in `auto` mode.
 pub const EXACT_SIX_VERTEX_VERTICES: usize = 30;
@@ -86,19 +118,19 @@ pub(crate) fn read_of(o: &ObservableSpec) -> &SixVertexRead {
 }
 
 /// Reads observable `o` of model `model` from `view`: the one reading function of the family.
-/// `height_slot` is the observable's height query, `scratch` a buffer the value may borrow.
+/// `height_slot` is the observable's height query, `scratch` the buffers the value may borrow.
 pub(crate) fn read<'s>(
     model: &ModelSpec,
     o: &ObservableSpec,
     view: &impl SixVertexView,
     height_slot: Option<usize>,
-    scratch: &'s mut Vec<usize>,
+    scratch: &'s mut ValueBuffers,
 ) -> Value<'s> {
     let universe = match o.kind {
         ValueKind::Set { universe } => universe,
         ValueKind::Scalar { .. } | ValueKind::Event | ValueKind::Sequence { .. } => 0,
     };
-    let number = |v: f64| Value::Number((v + o.shift) * o.scale);
+    let number = |v: f64| Value::Number(o.number(v));
     let (colors, how) = match *read_of(o) {
         SixVertexRead::Top(how) => (view.top(), how),
         SixVertexRead::Right(how) => (view.right(), how),
@@ -110,9 +142,45 @@ pub(crate) fn read<'s>(
         SixVertexRead::ExitColumn(c) => {
             return number(view.top().iter().position(|&t| t == c).map_or(0, |p| p + 1) as f64)
         }
+        SixVertexRead::ExitPermutation(how) => {
+            exit_permutation(model, view, how, &mut scratch.sequence);
+            return Value::Sequence(&scratch.sequence);
+        }
     };
-    set_elements(colors, how, o.threshold, o.map, universe, model, scratch);
-    Value::Set(scratch)
+    set_elements(
+        colors,
+        how,
+        o.threshold,
+        o.map,
+        universe,
+        model,
+        &mut scratch.set,
+    );
+    Value::Set(&scratch.set)
+}
+
+/// The exit permutation of `view` read `how` (file numbers), into `out`: exits numbered
+/// counterclockwise from the bottom-right corner (right side bottom to top, then the top right to
+/// left); see [`PermutationRead`].
+fn exit_permutation(
+    model: &ModelSpec,
+    view: &impl SixVertexView,
+    how: PermutationRead,
+    out: &mut Vec<u32>,
+) {
+    out.clear();
+    out.extend(view.right().iter().map(|&c| model.to_user(c)));
+    out.extend(view.top().iter().rev().map(|&c| model.to_user(c)));
+    if how == PermutationRead::ExitsByColor {
+        let by_exit = std::mem::take(out);
+        out.resize(by_exit.len(), 0);
+        for (exit, &c) in by_exit.iter().enumerate() {
+            // Validation made the boundary carry each of 1 … W + H once, so every color fits.
+            if let Some(slot) = (c as usize).checked_sub(1).and_then(|i| out.get_mut(i)) {
+                *slot = exit as u32 + 1;
+            }
+        }
+    }
 }
 
 fn set_read(k: RawSetKind) -> SetRead {
@@ -128,7 +196,7 @@ impl ModelFamily for SixVertexSpec {
     }
 
     fn read_names(&self) -> &'static str {
-        "top, right, row, column, height, exit-column"
+        "top, right, row, column, height, exit-column, exit-permutation"
     }
 
     fn resolve_read(
@@ -187,6 +255,32 @@ impl ModelFamily for SixVertexSpec {
                 SixVertexRead::ExitColumn(cx.class(&format!("{rp}.exit-column"), *c)?),
                 int,
             ),
+            RawRead::ExitPermutation(how) => {
+                let n = self.width + self.height;
+                let mut colors: Vec<Color> = match (&self.left, &self.bottom) {
+                    (BoundarySpec::Fixed(l), BoundarySpec::Fixed(b)) => {
+                        l.iter().chain(b).map(|&c| cx.model.to_user(c)).collect()
+                    }
+                    (BoundarySpec::Bernoulli { .. }, _) | (_, BoundarySpec::Bernoulli { .. }) => {
+                        Vec::new()
+                    }
+                };
+                colors.sort_unstable();
+                if !colors.iter().copied().eq(1..=n as Color) {
+                    return Err(cx.error(
+                        &format!("{rp}.exit-permutation"),
+                        format!("an exit permutation needs every boundary edge to carry a different color, the colors 1 … {n} (W + H) once each"),
+                    ));
+                }
+                let how = match how {
+                    RawPermutationRead::Colors => PermutationRead::ColorsByExit,
+                    RawPermutationRead::Exits => PermutationRead::ExitsByColor,
+                };
+                (
+                    SixVertexRead::ExitPermutation(how),
+                    ValueKind::Sequence { len: n },
+                )
+            }
             RawRead::Window(_)
             | RawRead::Position(_)
             | RawRead::Arrangement(_)
@@ -206,7 +300,7 @@ impl ModelFamily for SixVertexSpec {
                 | SixVertexRead::Row(_, how)
                 | SixVertexRead::Column(_, how) => *how == SetRead::Positions,
                 SixVertexRead::Height(..) => true,
-                SixVertexRead::ExitColumn(_) => false,
+                SixVertexRead::ExitColumn(_) | SixVertexRead::ExitPermutation(_) => false,
             },
             ReadSpec::Exclusion(_) => false,
         }
@@ -246,7 +340,10 @@ impl ModelFamily for SixVertexSpec {
             return Some(format!("model `{}` has a random boundary", model.name));
         }
         match read_of(o) {
-            SixVertexRead::Top(_) | SixVertexRead::Right(_) | SixVertexRead::ExitColumn(_) => None,
+            SixVertexRead::Top(_)
+            | SixVertexRead::Right(_)
+            | SixVertexRead::ExitColumn(_)
+            | SixVertexRead::ExitPermutation(_) => None,
             SixVertexRead::Row(..) | SixVertexRead::Column(..) | SixVertexRead::Height(..) => {
                 Some(format!(
                     "observable `{}` reads inside the rectangle; exact laws cover the top and right exits",
@@ -260,7 +357,7 @@ impl ModelFamily for SixVertexSpec {
         let engine = build(self)?;
         let law = exact_law(self.b1.value, self.b2.value, engine.boundary())
             .map_err(|e| e.to_string())?;
-        let mut scratch = Vec::new();
+        let mut scratch = ValueBuffers::default();
         Ok(ObservableLaw::collect(
             law.entries()
                 .iter()
@@ -275,7 +372,7 @@ impl ModelFamily for SixVertexSpec {
         };
         let engine = build(self).ok()?;
         let law = exact_law(ratio(n1, d1), ratio(n2, d2), engine.boundary()).ok()?;
-        let mut scratch = Vec::new();
+        let mut scratch = ValueBuffers::default();
         Some(law.map(|out| read(model, o, out, None, &mut scratch).key()))
     }
 

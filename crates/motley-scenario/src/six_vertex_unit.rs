@@ -5,7 +5,7 @@ use motley_sixvertex::{
     Boundary, ColorRule, HeightQuery, Model, Readout, ReadoutSpec, Side, SixVertexError,
 };
 
-use crate::family::{UnitSampler, Value};
+use crate::family::{UnitSampler, Value, ValueBuffers};
 use crate::scenario::{BoundarySpec, ModelSpec, ObservableSpec, SixVertexRead, SixVertexSpec};
 use crate::six_vertex_family::{read, read_of};
 
@@ -53,7 +53,7 @@ pub(crate) struct SixVertexUnit<'a> {
     observables: Vec<&'a ObservableSpec>,
     /// For each observable, its index among the height queries (if it reads a height).
     height_slot: Vec<Option<usize>>,
-    scratch: Vec<usize>,
+    scratch: ValueBuffers,
 }
 
 impl<'a> SixVertexUnit<'a> {
@@ -83,7 +83,10 @@ impl<'a> SixVertexUnit<'a> {
                         threshold: o.threshold.unwrap_or(1).max(1),
                     });
                 }
-                SixVertexRead::Top(_) | SixVertexRead::Right(_) | SixVertexRead::ExitColumn(_) => {}
+                SixVertexRead::Top(_)
+                | SixVertexRead::Right(_)
+                | SixVertexRead::ExitColumn(_)
+                | SixVertexRead::ExitPermutation(_) => {}
             }
             height_slot.push(slot);
         }
@@ -94,7 +97,7 @@ impl<'a> SixVertexUnit<'a> {
             spec,
             observables,
             height_slot,
-            scratch: Vec::new(),
+            scratch: ValueBuffers::default(),
         })
     }
 

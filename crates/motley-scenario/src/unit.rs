@@ -79,7 +79,10 @@ pub fn claim_slots(s: &Scenario, claim: usize) -> Vec<Slot> {
             let rb = u32::from(s.observables[*a].model == s.observables[*b].model);
             vec![obs(*a, 0), obs(*b, rb)]
         }
-        ClaimKind::LawOf(a, _) | ClaimKind::Probability(a, _) | ClaimKind::Describe(a, ..) => {
+        ClaimKind::LawOf(a, _)
+        | ClaimKind::Probability(a, _)
+        | ClaimKind::Describe(a, ..)
+        | ClaimKind::Mean(a, _) => {
             vec![obs(*a, 0)]
         }
         ClaimKind::Series(sr) => sr.observables.iter().map(|&o| obs(o, 0)).collect(),

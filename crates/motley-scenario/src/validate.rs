@@ -49,7 +49,8 @@ pub fn validate(
     let mut times: Vec<Vec<f64>> = vec![Vec::new(); raw.models.len()];
     for (oname, o) in &raw.observables {
         if let Some(m) = raw.models.get_index_of(&o.of) {
-            if let Some((read, t)) = read_time(&o.read) {
+            if let Some(t) = o.read.time() {
+                let read = o.read.name();
                 let path = format!("observables.{oname}.read.{read}.time");
                 times[m].push(ck.time(&path, t)?);
             }
@@ -130,25 +131,6 @@ fn mode(m: RawExactMode) -> ExactMode {
         RawExactMode::Auto => ExactMode::Auto,
         RawExactMode::On => ExactMode::On,
         RawExactMode::Off => ExactMode::Off,
-    }
-}
-
-/// The read-out's key and its time, for reads that take one.
-fn read_time(r: &RawRead) -> Option<(&'static str, f64)> {
-    match r {
-        RawRead::Height(h) => h.time.map(|t| ("height", t)),
-        RawRead::Window(w) => Some(("window", w.time)),
-        RawRead::Position(p) => Some(("position", p.time)),
-        RawRead::Arrangement(t) => Some(("arrangement", t.time)),
-        RawRead::InverseArrangement(t) => Some(("inverse-arrangement", t.time)),
-        RawRead::Current(c) => Some(("current", c.time)),
-        RawRead::Swapped(p) => Some(("swapped", p.time)),
-        RawRead::Attempted(p) => Some(("attempted", p.time)),
-        RawRead::Top(_)
-        | RawRead::Right(_)
-        | RawRead::Row(_)
-        | RawRead::Column(_)
-        | RawRead::ExitColumn(_) => None,
     }
 }
 
@@ -445,6 +427,7 @@ fn claim(
         c.describe.is_some(),
         c.series.is_some(),
         c.joint.is_some(),
+        c.mean.is_some(),
     ]
     .iter()
     .filter(|b| **b)
@@ -452,7 +435,7 @@ fn claim(
     if given != 1 {
         return Err(ck.error(
             path,
-            format!("a claim needs exactly one of `same-law`, `law-of`, `probability`, `describe`, `series`, `joint`; found {given}"),
+            format!("a claim needs exactly one of `same-law`, `law-of`, `probability`, `describe`, `series`, `joint`, `mean`; found {given}"),
         ));
     }
     let find = |p: &str, n: &str| -> Result<usize, ScenarioError> {
@@ -492,10 +475,28 @@ fn claim(
             ));
         }
         ClaimKind::SameLaw(ia, ib)
+    } else if let Some(mn) = &c.mean {
+        let p = format!("{path}.mean");
+        let i = find(&format!("{p}.observable"), &mn.observable)?;
+        if !matches!(obs[i].kind, ValueKind::Scalar { .. }) {
+            return Err(ck.error(
+                &format!("{p}.observable"),
+                format!(
+                    "`mean` needs a number, but \"{}\" is {}",
+                    mn.observable,
+                    obs[i].kind.describe()
+                ),
+            ));
+        }
+        if let Some(v) = mn.equals {
+            ck.finite(&format!("{p}.equals"), v)?;
+        }
+        ClaimKind::Mean(i, mn.equals)
     } else if let Some(l) = &c.law_of {
         let p = format!("{path}.law-of");
         let i = find(&format!("{p}.observable"), &l.observable)?;
-        if !matches!(obs[i].kind, ValueKind::Scalar { .. }) {
+        let table = matches!(l.reference, RawReference::Table(_));
+        if !table && !matches!(obs[i].kind, ValueKind::Scalar { .. }) {
             return Err(ck.error(
                 &format!("{p}.observable"),
                 format!(
@@ -649,6 +650,12 @@ fn reference(
             }
             ReferenceSpec::SixVertexExitSpeed((1.0 - b1) / (1.0 - b2))
         }
+        RawReference::Table(rows) => ReferenceSpec::Table(crate::table_law::table(
+            ck,
+            &format!("{rp}.table"),
+            rows,
+            &obs[i],
+        )?),
         RawReference::TracyWidomGue => ReferenceSpec::TracyWidomGue,
         RawReference::TracyWidomGoe => ReferenceSpec::TracyWidomGoe,
         RawReference::SecondClassSpeed(r) => {

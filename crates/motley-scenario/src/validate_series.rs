@@ -200,7 +200,7 @@ fn profile(
             }
             Err(why) => return Err(ck.error(path, why)),
         };
-        values.push((v + o.shift) * o.scale);
+        values.push(o.number(v));
     }
     Ok(ProfileSpec {
         name: name.to_string(),

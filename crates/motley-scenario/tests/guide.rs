@@ -67,6 +67,7 @@ fn all_keys() -> BTreeSet<String> {
         accepted::<RawReference>(m),
         accepted::<RawNormal>(s),
         accepted::<RawProbability>(s),
+        accepted::<RawMean>(s),
         accepted::<RawExactMode>(u),
         accepted::<RawStrength>(u),
     ];
