@@ -44,8 +44,11 @@ pub mod evaluate_series;
 mod exact_decide;
 mod exclusion_unit;
 pub mod finish;
+#[cfg(test)]
+mod fixtures;
 pub mod load;
 pub mod locate;
+pub mod partial_check;
 pub mod picture;
 pub mod plan;
 pub mod raw;
