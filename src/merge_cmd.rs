@@ -37,13 +37,6 @@ pub fn merge(a: MergeArgs) -> Result<(), Failure> {
     let (text, file) = scenario.ok_or_else(|| Failure::BadInput("nothing to merge".into()))?;
     let samples = partials.first().map(|(_, p)| p.samples);
     let loaded = load_text(text, file, samples)?;
-    if let Some((f, p)) = partials.iter().find(|(_, p)| Some(p.samples) != samples) {
-        return Err(Failure::BadInput(format!(
-            "{f}: has {} samples per side, the first shard has {}",
-            p.samples,
-            samples.unwrap_or(0)
-        )));
-    }
     check_partials(&loaded.scenario, &partials).map_err(|e| Failure::BadInput(e.to_string()))?;
     let mut sorted: Vec<Partial> = partials.into_iter().map(|(_, p)| p).collect();
     sorted.sort_by_key(|p| p.shard.index);

@@ -5,10 +5,13 @@ use std::sync::atomic::{AtomicBool, AtomicU64};
 use std::sync::Arc;
 use std::time::Instant;
 
-use motley_report::{write_json_atomic, write_report, Picture, ReportExtras};
+use motley_report::{
+    check_destination, files, write_folder_atomic, write_json_atomic, write_report, Picture,
+    ReportError, ReportExtras,
+};
 use motley_scenario::finish::finish;
 use motley_scenario::plan::plan;
-use motley_scenario::run::{advance, Partial, Shard, Workers, PARTIAL_SCHEMA};
+use motley_scenario::run::{advance, Partial, Shard, Workers};
 use motley_scenario::Scenario;
 
 use crate::cli::RunArgs;
@@ -63,96 +66,33 @@ fn read_checkpoint(path: &Path, s: &Scenario, shard: Shard) -> Result<Partial, F
             "cannot resume: checkpoint {shown} is corrupt ({e}); delete it to start over"
         ))
     })?;
-    let refuse = |why: String| {
+    p.check_resume(s, shard).map_err(|why| {
         Failure::BadInput(format!(
             "cannot resume: checkpoint {shown} {why}; delete it to start over"
         ))
-    };
-    if p.schema != PARTIAL_SCHEMA {
-        return Err(refuse(format!(
-            "has schema `{}`, expected `{PARTIAL_SCHEMA}`",
-            p.schema
-        )));
-    }
-    if p.motley_version != motley_scenario::VERSION {
-        return Err(refuse(format!(
-            "was written by motley {}, this is {}",
-            p.motley_version,
-            motley_scenario::VERSION
-        )));
-    }
-    if p.scenario_hash != s.hash {
-        return Err(refuse(format!(
-            "belongs to another scenario (hash {}, this file has {})",
-            p.scenario_hash, s.hash
-        )));
-    }
-    if p.shard != shard || p.samples != s.samples {
-        return Err(refuse(format!(
-            "is for shard {}/{} with {} samples, this run is shard {}/{} with {}",
-            p.shard.index, p.shard.count, p.samples, shard.index, shard.count, s.samples
-        )));
-    }
+    })?;
     Ok(p)
 }
 
-/// Writes a folder holding `files` atomically: a staging folder renamed into place.
-pub fn write_folder(dir: &Path, files: &[(&str, Vec<u8>)], overwrite: bool) -> Result<(), Failure> {
-    let io = |what: &str, p: &Path, e: std::io::Error| {
-        Failure::Runtime(format!("could not {what} {}: {e}", p.display()))
-    };
-    if dir.exists() && !overwrite {
-        return Err(Failure::BadInput(format!(
-            "folder {} exists; pass --overwrite to replace it",
-            dir.display()
-        )));
+/// A report writer's error as a failure: a refused destination is the user's input, the rest is
+/// the run's.
+fn report_failure(e: ReportError) -> Failure {
+    match e {
+        ReportError::Exists { .. }
+        | ReportError::NotAReport { .. }
+        | ReportError::NoFolderName { .. } => Failure::BadInput(e.to_string()),
+        other => Failure::Runtime(other.to_string()),
     }
-    let parent = dir
-        .parent()
-        .filter(|p| !p.as_os_str().is_empty())
-        .unwrap_or(Path::new("."));
-    std::fs::create_dir_all(parent).map_err(|e| io("create", parent, e))?;
-    let name = dir
-        .file_name()
-        .map(|n| n.to_string_lossy().to_string())
-        .unwrap_or_default();
-    let staging = parent.join(format!(".{name}.partial-{}", std::process::id()));
-    let _ = std::fs::remove_dir_all(&staging);
-    std::fs::create_dir_all(&staging).map_err(|e| io("create", &staging, e))?;
-    for (f, bytes) in files {
-        let p = staging.join(f);
-        std::fs::write(&p, bytes).map_err(|e| io("write", &p, e))?;
-    }
-    if dir.exists() {
-        let old = parent.join(format!(".{name}.old-{}", std::process::id()));
-        std::fs::rename(dir, &old).map_err(|e| io("move aside", dir, e))?;
-        std::fs::rename(&staging, dir).map_err(|e| io("rename into", dir, e))?;
-        let _ = std::fs::remove_dir_all(&old);
-    } else {
-        std::fs::rename(&staging, dir).map_err(|e| io("rename into", dir, e))?;
-    }
-    Ok(())
 }
 
 /// The report picture of the scenario's first six-vertex model.
 pub fn picture(s: &Scenario) -> Option<(Picture, String)> {
-    let p = motley_scenario::picture::sample_picture(s)?;
+    let (model, p) = motley_scenario::picture::sample_picture(s)?;
     let caption = format!(
-        "One sample (index 0) of model \"{}\", {}×{}",
-        p.model, p.width, p.height
+        "One sample (index 0) of model \"{model}\", {}×{}",
+        p.width, p.height
     );
-    Some((
-        Picture {
-            width: p.width,
-            height: p.height,
-            max_color: p.max_color,
-            left: p.left,
-            bottom: p.bottom,
-            right_out: p.right_out,
-            up_out: p.up_out,
-        },
-        caption,
-    ))
+    Some((p, caption))
 }
 
 /// Writes the final report of complete partials and prints the verdicts.
@@ -170,12 +110,7 @@ pub fn report(
     if let Some((pic, caption)) = picture(s) {
         extras = extras.with_picture(pic, caption);
     }
-    let dir = write_report(out, &result, &extras, overwrite).map_err(|e| match e {
-        motley_report::ReportError::Exists { .. }
-        | motley_report::ReportError::NotAReport { .. }
-        | motley_report::ReportError::NoFolderName { .. } => Failure::BadInput(e.to_string()),
-        other => Failure::Runtime(other.to_string()),
-    })?;
+    let dir = write_report(out, &result, &extras, overwrite).map_err(report_failure)?;
     let mut rejected = Vec::new();
     for c in &result.claims {
         println!("{:<24} {}", c.id, c.verdict);
@@ -224,25 +159,13 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
             None => base,
         }
     });
-    if out.exists() && !a.overwrite {
-        return Err(Failure::BadInput(format!(
-            "report folder {} exists; pass --overwrite to replace it",
-            out.display()
-        )));
-    }
-    // The report writer keeps a folder that is not a report even with --overwrite; say so before
-    // the run rather than after it.
-    let foreign = shard.is_none()
-        && out.is_dir()
-        && !out.join("result.json").exists()
-        && std::fs::read_dir(&out)
-            .map(|mut d| d.next().is_some())
-            .unwrap_or(true);
-    if foreign {
-        return Err(Failure::BadInput(
-            motley_report::ReportError::NotAReport { path: out.clone() }.to_string(),
-        ));
-    }
+    // The folder writer refuses an existing folder without --overwrite, and keeps one that is not
+    // ours even with it; say so before the run rather than after it.
+    let marker = match shard {
+        Some(_) => PARTIAL_FILE,
+        None => files::RESULT,
+    };
+    check_destination(&out, marker, a.overwrite).map_err(report_failure)?;
     let shard_used = shard.unwrap_or(Shard::WHOLE);
     let cp = checkpoint_path(&out);
     let mut partial = if a.resume {
@@ -312,14 +235,16 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         Some(sh) => {
             let json =
                 serde_json::to_vec_pretty(&partial).map_err(|e| Failure::Runtime(e.to_string()))?;
-            write_folder(
+            write_folder_atomic(
                 &out,
                 &[
-                    (PARTIAL_FILE, json),
-                    (SCENARIO_FILE, loaded.text.clone().into_bytes()),
+                    (PARTIAL_FILE, json.as_slice()),
+                    (SCENARIO_FILE, loaded.text.as_bytes()),
                 ],
+                PARTIAL_FILE,
                 a.overwrite,
-            )?;
+            )
+            .map_err(report_failure)?;
             println!(
                 "shard {}/{}: {} samples per unit written to {}",
                 sh.index,

@@ -11,8 +11,9 @@
 //!
 //! Replacing an existing folder takes two renames: the old folder is moved aside to
 //! `.{name}.old-{pid}-{n}`, the new one moved in, then the old one deleted. Between the two renames the
-//! final name is briefly absent, never half-written. Only a folder that looks like a report (it holds a
-//! `result.json`, or is empty) is ever replaced, so a mistaken `--out $HOME --overwrite` deletes nothing.
+//! final name is briefly absent, never half-written. Only a folder that looks like one of ours (it holds
+//! the marker file of its kind, `result.json` for a report, or is empty) is ever replaced, so a mistaken
+//! `--out $HOME --overwrite` deletes nothing.
 
 use std::fs;
 use std::io::Write;
@@ -63,6 +64,43 @@ pub fn write_file_atomic(path: &Path, bytes: &[u8]) -> Result<(), ReportError> {
 pub fn write_json_atomic<T: Serialize + ?Sized>(path: &Path, value: &T) -> Result<(), ReportError> {
     let text = json_text(path, value)?;
     write_file_atomic(path, text.as_bytes())
+}
+
+/// Writes a folder `dir` holding exactly `files` (name, content) atomically: they are written into a
+/// hidden staging sibling, flushed to disk, and the staging folder is renamed to `dir` once complete.
+/// Missing parent folders are created. Returns `dir`.
+///
+/// `marker` names the file that marks a folder as one of this kind (it should be among `files`): an
+/// existing `dir` is replaced only with `overwrite`, and only when it holds `marker` or is empty.
+///
+/// # Errors
+/// As [`check_destination`] (checked before writing and again just before the rename), and
+/// [`ReportError::Io`] naming the file or folder that failed; on any error the staging folder is
+/// removed and `dir` is left as it was.
+pub fn write_folder_atomic(
+    dir: &Path,
+    files: &[(&str, &[u8])],
+    marker: &str,
+    overwrite: bool,
+) -> Result<PathBuf, ReportError> {
+    let staging = Staging::begin(dir, marker, overwrite)?;
+    for (name, bytes) in files {
+        write_synced(&staging.path().join(name), bytes)?;
+    }
+    staging.publish(overwrite)
+}
+
+/// Checks that a folder may be written at `dir`: it does not exist, or `overwrite` is asked and it
+/// holds the marker file `marker` of its kind or is empty. Returns whether it exists.
+///
+/// # Errors
+/// - [`ReportError::NoFolderName`] if `dir` has no final component;
+/// - [`ReportError::Exists`] if `dir` exists and `overwrite` is false;
+/// - [`ReportError::NotAReport`] if `dir` exists and is neither empty nor holds `marker`;
+/// - [`ReportError::Io`] if `dir` cannot be inspected.
+pub fn check_destination(dir: &Path, marker: &str, overwrite: bool) -> Result<bool, ReportError> {
+    split(dir)?;
+    check_target(dir, marker, overwrite)
 }
 
 /// Pretty JSON with a trailing newline.
@@ -138,9 +176,9 @@ fn process_gone(pid: u32) -> bool {
     proc_root.exists() && !Path::new(&format!("/proc/{pid}")).exists()
 }
 
-/// Whether an existing folder may be replaced: it holds `result.json` or is empty.
-fn looks_like_report(dir: &Path) -> Result<bool, ReportError> {
-    if dir.join("result.json").is_file() {
+/// Whether an existing folder may be replaced: it holds `marker` or is empty.
+fn looks_like_ours(dir: &Path, marker: &str) -> Result<bool, ReportError> {
+    if dir.join(marker).is_file() {
         return Ok(true);
     }
     let mut entries = fs::read_dir(dir).map_err(|e| ReportError::io("read folder", dir, e))?;
@@ -159,16 +197,18 @@ pub(crate) struct Staging {
     parent: PathBuf,
     /// The final component of `target`.
     name: String,
+    /// The file that marks a folder at `target` as replaceable.
+    marker: String,
     /// Whether `temp` has been renamed away.
     published: bool,
 }
 
 impl Staging {
-    /// Checks that `target` may be written (absent, or replaceable with `overwrite`), sweeps leftovers
-    /// of dead processes and creates a fresh staging folder beside it.
-    pub(crate) fn begin(target: &Path, overwrite: bool) -> Result<Self, ReportError> {
+    /// Checks that `target` may be written (absent, or holding `marker` or empty and replaceable with
+    /// `overwrite`), sweeps leftovers of dead processes and creates a fresh staging folder beside it.
+    pub(crate) fn begin(target: &Path, marker: &str, overwrite: bool) -> Result<Self, ReportError> {
         let (parent, name) = split(target)?;
-        check_target(target, overwrite)?;
+        check_target(target, marker, overwrite)?;
         fs::create_dir_all(&parent).map_err(|e| ReportError::io("create folder", &parent, e))?;
         sweep_leftovers(&parent, &name);
         loop {
@@ -180,6 +220,7 @@ impl Staging {
                         target: target.to_path_buf(),
                         parent,
                         name,
+                        marker: marker.to_string(),
                         published: false,
                     })
                 }
@@ -199,7 +240,7 @@ impl Staging {
     pub(crate) fn publish(mut self, overwrite: bool) -> Result<PathBuf, ReportError> {
         sync_dir(&self.temp);
         // Checked again: another process may have written the report meanwhile.
-        let exists = check_target(&self.target, overwrite)?;
+        let exists = check_target(&self.target, &self.marker, overwrite)?;
         if exists {
             let aside = temp_name(&self.parent, &self.name, OLD);
             fs::rename(&self.target, &aside)
@@ -233,16 +274,17 @@ impl Drop for Staging {
 }
 
 /// Whether `target` exists, failing when it exists and may not be replaced.
-fn check_target(target: &Path, overwrite: bool) -> Result<bool, ReportError> {
+fn check_target(target: &Path, marker: &str, overwrite: bool) -> Result<bool, ReportError> {
     match fs::symlink_metadata(target) {
         Err(e) if e.kind() == std::io::ErrorKind::NotFound => Ok(false),
         Err(e) => Err(ReportError::io("inspect", target, e)),
         Ok(_) if !overwrite => Err(ReportError::Exists {
             path: target.to_path_buf(),
         }),
-        Ok(meta) if meta.is_dir() && looks_like_report(target)? => Ok(true),
+        Ok(meta) if meta.is_dir() && looks_like_ours(target, marker)? => Ok(true),
         Ok(_) => Err(ReportError::NotAReport {
             path: target.to_path_buf(),
+            marker: marker.to_string(),
         }),
     }
 }
@@ -270,6 +312,16 @@ fn sweep_leftovers(parent: &Path, name: &str) {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    /// The names of the entries of `dir`, sorted.
+    fn names(dir: &Path) -> Vec<String> {
+        let mut names: Vec<String> = fs::read_dir(dir)
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        names.sort();
+        names
+    }
 
     #[test]
     fn temp_owner_parses_only_our_names() {
@@ -301,11 +353,7 @@ mod tests {
         let text = fs::read_to_string(&path).unwrap();
         assert_eq!(text, "[\n  4\n]\n");
         // No temporary file is left beside it.
-        let names: Vec<_> = fs::read_dir(dir.path())
-            .unwrap()
-            .map(|e| e.unwrap().file_name())
-            .collect();
-        assert_eq!(names, vec![std::ffi::OsString::from("state.json")]);
+        assert_eq!(names(dir.path()), ["state.json"]);
     }
 
     #[test]
@@ -321,12 +369,61 @@ mod tests {
     fn dropped_staging_is_removed() {
         let dir = tempfile::tempdir().unwrap();
         let target = dir.path().join("rep");
-        let staging = Staging::begin(&target, false).unwrap();
+        let staging = Staging::begin(&target, "result.json", false).unwrap();
         let temp = staging.path().to_path_buf();
         assert!(temp.is_dir());
         drop(staging);
         assert!(!temp.exists());
         assert!(!target.exists());
+    }
+
+    #[test]
+    fn folder_is_written_whole_and_replaced_only_when_marked() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("deep").join("shard");
+        let files: [(&str, &[u8]); 2] = [("a.json", b"{}"), ("b.txt", b"text")];
+        write_folder_atomic(&target, &files, "a.json", false).unwrap();
+        assert_eq!(fs::read(target.join("b.txt")).unwrap(), b"text");
+        assert!(matches!(
+            write_folder_atomic(&target, &files[..1], "a.json", false),
+            Err(ReportError::Exists { .. })
+        ));
+        write_folder_atomic(&target, &files[..1], "a.json", true).unwrap();
+        assert!(target.join("a.json").is_file());
+        assert!(
+            !target.join("b.txt").exists(),
+            "the old folder is replaced whole"
+        );
+        // A folder without the marker is kept, even with overwrite.
+        let err = write_folder_atomic(&target, &files, "b.txt", true).unwrap_err();
+        assert!(err.to_string().contains("(no b.txt, not empty)"), "{err}");
+        assert!(target.join("a.json").is_file());
+        // Nothing but the folder is left beside it.
+        assert_eq!(names(target.parent().unwrap()), ["shard"]);
+    }
+
+    #[test]
+    fn destination_check_agrees_with_the_writer() {
+        let dir = tempfile::tempdir().unwrap();
+        let target = dir.path().join("out");
+        assert!(!check_destination(&target, "m", false).unwrap());
+        fs::create_dir(&target).unwrap();
+        assert!(matches!(
+            check_destination(&target, "m", false),
+            Err(ReportError::Exists { .. })
+        ));
+        assert!(check_destination(&target, "m", true).unwrap());
+        fs::write(target.join("other"), b"").unwrap();
+        assert!(matches!(
+            check_destination(&target, "m", true),
+            Err(ReportError::NotAReport { .. })
+        ));
+        fs::write(target.join("m"), b"").unwrap();
+        assert!(check_destination(&target, "m", true).unwrap());
+        assert!(matches!(
+            check_destination(Path::new("/"), "m", true),
+            Err(ReportError::NoFolderName { .. })
+        ));
     }
 
     #[test]

@@ -121,11 +121,17 @@ fn span(values: impl Iterator<Item = f64>, frac: f64, pad_single: f64) -> (f64, 
     (lo - pad, hi + pad)
 }
 
-/// Vertical range from 0 to just above the largest value or bound (at least a little above 0).
-fn y_fit(sides: &[&Series]) -> (f64, f64) {
+/// The vertical range: the spec's, else from 0 to just above the largest value or bound of the sides
+/// and the reference (at least a little above 0).
+fn y_range(spec: &ChartSpec, sides: &[&Series], reference: Option<&Series>) -> (f64, f64) {
+    if let Some(range) = spec.y_range {
+        return range;
+    }
     let top = sides
         .iter()
-        .flat_map(|s| points(s))
+        .copied()
+        .chain(reference)
+        .flat_map(points)
         .map(|(_, y, b)| b.map_or(y, |(_, u)| u.max(y)))
         .fold(0.0f64, f64::max);
     let top = if top > 0.0 { top * 1.08 } else { 1.0 };
@@ -147,26 +153,8 @@ pub(crate) fn curves(
         .chain(reference)
         .flat_map(|s| points(s).into_iter().map(|p| p.0));
     let (x0, x1) = span(all_x, 0.03, 0.5);
-    let (y0, y1) = spec.y_range.unwrap_or_else(|| {
-        let mut all: Vec<&Series> = sides.to_vec();
-        all.extend(reference);
-        y_fit(&all)
-    });
-    let mut buf = String::new();
-    {
-        let root = SVGBackend::with_string(&mut buf, SIZE).into_drawing_area();
-        root.fill(&WHITE).map_err(&err)?;
-        let mut chart = ChartBuilder::on(&root)
-            .caption(
-                &spec.title,
-                ("sans-serif", 22).into_font().color(&rgb(palette::INK)),
-            )
-            .margin(18)
-            .x_label_area_size(54)
-            .y_label_area_size(72)
-            .build_cartesian_2d(x0..x1, y0..y1)
-            .map_err(&err)?;
-        mesh(&mut chart, spec).map_err(&err)?;
+    let y = y_range(spec, sides, reference);
+    frame(spec, (x0, x1), y, path, |chart| {
         for (i, s) in sides.iter().enumerate() {
             let c = rgb(palette::side(i));
             let pts = points(s);
@@ -198,20 +186,10 @@ pub(crate) fn curves(
                 });
         }
         if let Some(r) = reference {
-            let c = rgb(palette::REFERENCE);
-            let line: Vec<(f64, f64)> = points(r).iter().map(|p| (p.0, p.1)).collect();
-            chart
-                .draw_series(DashedLineSeries::new(line, 8, 5, c.stroke_width(2)))
-                .map_err(&err)?
-                .label(r.label.clone())
-                .legend(move |(x, y)| {
-                    PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(2))
-                });
+            draw_reference(chart, r).map_err(&err)?;
         }
-        legend(&mut chart, spec).map_err(&err)?;
-        root.present().map_err(&err)?;
-    }
-    Ok(buf)
+        Ok(())
+    })
 }
 
 /// Points with interval bars, one colour per side, sides set slightly apart; `reference` dashed.
@@ -243,11 +221,6 @@ pub(crate) fn bars(
     let (mut x0, mut x1) = span(xs.iter().copied().chain(ref_x), 0.0, 0.0);
     x0 -= 0.6 * gap;
     x1 += 0.6 * gap;
-    let (y0, y1) = spec.y_range.unwrap_or_else(|| {
-        let mut all: Vec<&Series> = sides.to_vec();
-        all.extend(reference);
-        y_fit(&all)
-    });
     let m = sides.len().max(1);
     let width = 0.5 * gap; // room shared by the sides around each abscissa
     let offset = |j: usize| {
@@ -258,31 +231,10 @@ pub(crate) fn bars(
         }
     };
     let cap = 0.12 * width.min(gap / m as f64).max(gap * 0.05);
-    let mut buf = String::new();
-    {
-        let root = SVGBackend::with_string(&mut buf, SIZE).into_drawing_area();
-        root.fill(&WHITE).map_err(&err)?;
-        let mut chart = ChartBuilder::on(&root)
-            .caption(
-                &spec.title,
-                ("sans-serif", 22).into_font().color(&rgb(palette::INK)),
-            )
-            .margin(18)
-            .x_label_area_size(54)
-            .y_label_area_size(72)
-            .build_cartesian_2d(x0..x1, y0..y1)
-            .map_err(&err)?;
-        mesh(&mut chart, spec).map_err(&err)?;
+    let y = y_range(spec, sides, reference);
+    frame(spec, (x0, x1), y, path, |chart| {
         if let Some(r) = reference {
-            let c = rgb(palette::REFERENCE);
-            let line: Vec<(f64, f64)> = points(r).iter().map(|p| (p.0, p.1)).collect();
-            chart
-                .draw_series(DashedLineSeries::new(line, 8, 5, c.stroke_width(2)))
-                .map_err(&err)?
-                .label(r.label.clone())
-                .legend(move |(x, y)| {
-                    PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(2))
-                });
+            draw_reference(chart, r).map_err(&err)?;
         }
         for (j, s) in sides.iter().enumerate() {
             let c = rgb(palette::side(j));
@@ -313,10 +265,54 @@ pub(crate) fn bars(
                 .label(s.label.clone())
                 .legend(move |(x, y)| Circle::new((x + 11, y), 4, c.filled()));
         }
+        Ok(())
+    })
+}
+
+/// Draws one chart into SVG text: white ground, title, axes and grid from `spec` over the ranges
+/// `x` and `y`, then `body`, then the legend.
+fn frame(
+    spec: &ChartSpec,
+    x: (f64, f64),
+    y: (f64, f64),
+    path: &Path,
+    body: impl FnOnce(&mut Chart<'_, '_>) -> Result<(), ReportError>,
+) -> Result<String, ReportError> {
+    let err = draw_err(path);
+    let mut buf = String::new();
+    {
+        let root = SVGBackend::with_string(&mut buf, SIZE).into_drawing_area();
+        root.fill(&WHITE).map_err(&err)?;
+        let mut chart = ChartBuilder::on(&root)
+            .caption(
+                &spec.title,
+                ("sans-serif", 22).into_font().color(&rgb(palette::INK)),
+            )
+            .margin(18)
+            .x_label_area_size(54)
+            .y_label_area_size(72)
+            .build_cartesian_2d(x.0..x.1, y.0..y.1)
+            .map_err(&err)?;
+        mesh(&mut chart, spec).map_err(&err)?;
+        body(&mut chart)?;
         legend(&mut chart, spec).map_err(&err)?;
         root.present().map_err(&err)?;
     }
     Ok(buf)
+}
+
+/// The reference curve: dashed grey, with its legend entry.
+fn draw_reference(
+    chart: &mut Chart<'_, '_>,
+    r: &Series,
+) -> Result<(), DrawingAreaErrorKind<std::io::Error>> {
+    let c = rgb(palette::REFERENCE);
+    let line: Vec<(f64, f64)> = points(r).iter().map(|p| (p.0, p.1)).collect();
+    chart
+        .draw_series(DashedLineSeries::new(line, 8, 5, c.stroke_width(2)))?
+        .label(r.label.clone())
+        .legend(move |(x, y)| PathElement::new(vec![(x, y), (x + 22, y)], c.stroke_width(2)));
+    Ok(())
 }
 
 /// Chart type used by both shapes.

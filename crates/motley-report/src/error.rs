@@ -13,13 +13,15 @@ pub enum ReportError {
     },
     /// Overwriting was asked for, but the existing folder does not look like a report, so it is kept.
     #[error(
-        "{} exists and is not a motley report (no result.json, not empty); \
+        "{} exists and is not a motley report (no {marker}, not empty); \
          refusing to replace it even with --overwrite: choose another --out",
         path.display()
     )]
     NotAReport {
         /// The folder that was kept.
         path: PathBuf,
+        /// The file whose presence would have marked it as replaceable, e.g. `result.json`.
+        marker: String,
     },
     /// The report path has no final component (e.g. `/` or `..`).
     #[error("report path {} has no folder name; give a path such as reports/my-run", path.display())]
@@ -64,11 +66,8 @@ pub enum ReportError {
         message: String,
     },
     /// A sample picture is inconsistent (wrong lengths, colors out of range, colors not conserved).
-    #[error("sample picture is inconsistent: {reason}")]
-    BadPicture {
-        /// What is wrong, with the offending index and values.
-        reason: String,
-    },
+    #[error("sample picture is inconsistent: {0}")]
+    BadPicture(#[from] motley_scenario::picture::PictureError),
 }
 
 impl ReportError {

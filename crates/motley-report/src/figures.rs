@@ -16,6 +16,7 @@ use plotters::prelude::SeriesLabelPosition;
 
 use crate::chart::{self, ChartSpec};
 use crate::error::ReportError;
+use crate::side::side_label;
 
 /// One figure written for a claim.
 #[derive(Debug, Clone, PartialEq, Eq)]
@@ -58,17 +59,6 @@ pub(crate) fn stems(claims: &[ClaimResult]) -> Vec<String> {
             stem
         })
         .collect()
-}
-
-/// The label of side `i`: the series' own label, else the claim's observable, else `side i+1`.
-fn side_label(claim: &ClaimResult, own: &str, i: usize) -> String {
-    if !own.trim().is_empty() {
-        own.to_string()
-    } else if let Some(o) = claim.observables.get(i) {
-        o.clone()
-    } else {
-        format!("side {}", i + 1)
-    }
 }
 
 /// The drawable series of `list`, with labels filled in.
@@ -163,44 +153,43 @@ pub(crate) fn draw_claim(
         })?;
     }
 
-    let inclusion = labelled(claim, &est.inclusion);
-    if !inclusion.is_empty() {
-        let title = format!("{}: per-element inclusion probability", claim.id);
+    // Per-side bar charts of element-indexed laws: (kind, data, title, x axis, y axis, caption start).
+    let side_laws = [
+        (
+            "inclusion",
+            &est.inclusion,
+            "per-element inclusion probability",
+            "element",
+            "P(element in the set)",
+            "Probability that each element belongs to the set",
+        ),
+        (
+            "size-law",
+            &est.size_law,
+            "law of the set size",
+            "set size k",
+            "P(size = k)",
+            "Law of the number of elements in the set",
+        ),
+    ];
+    for (kind, list, what, x_desc, y_desc, says) in side_laws {
+        let list = labelled(claim, list);
+        if list.is_empty() {
+            continue;
+        }
+        let title = format!("{}: {what}", claim.id);
         let spec = ChartSpec {
             title: title.clone(),
-            x_desc: "element".into(),
-            y_desc: "P(element in the set)".into(),
+            x_desc: x_desc.into(),
+            y_desc: y_desc.into(),
             y_range: None,
             legend: SeriesLabelPosition::UpperRight,
             categories: None,
-            integer_x: integral(&inclusion),
+            integer_x: integral(&list),
         };
-        let caption = format!(
-            "Probability that each element belongs to the set, per side, with {level}% intervals (bars)."
-        );
-        let sides: Vec<&Series> = inclusion.iter().collect();
-        emit("inclusion", title, caption, &|p| {
-            chart::bars(&spec, &sides, None, p)
-        })?;
-    }
-
-    let size_law = labelled(claim, &est.size_law);
-    if !size_law.is_empty() {
-        let title = format!("{}: law of the set size", claim.id);
-        let spec = ChartSpec {
-            title: title.clone(),
-            x_desc: "set size k".into(),
-            y_desc: "P(size = k)".into(),
-            y_range: None,
-            legend: SeriesLabelPosition::UpperRight,
-            categories: None,
-            integer_x: integral(&size_law),
-        };
-        let caption = format!(
-            "Law of the number of elements in the set, per side, with {level}% intervals (bars)."
-        );
-        let sides: Vec<&Series> = size_law.iter().collect();
-        emit("size-law", title, caption, &|p| {
+        let caption = format!("{says}, per side, with {level}% intervals (bars).");
+        let sides: Vec<&Series> = list.iter().collect();
+        emit(kind, title, caption, &|p| {
             chart::bars(&spec, &sides, None, p)
         })?;
     }

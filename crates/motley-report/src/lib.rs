@@ -104,18 +104,20 @@
 mod atomic;
 mod chart;
 mod error;
+mod extras;
 mod figures;
 mod format;
 mod heatmap;
 mod palette;
-mod picture;
 mod picture_draw;
 mod report;
+mod side;
 mod summary;
 
-pub use atomic::{write_file_atomic, write_json_atomic};
+pub use atomic::{check_destination, write_file_atomic, write_folder_atomic, write_json_atomic};
 pub use error::ReportError;
-pub use picture::Picture;
+pub use extras::ReportExtras;
+pub use motley_scenario::picture::Picture;
 pub use picture_draw::{PNG_LIMIT, SVG_LIMIT};
-pub use report::{files, write_report, ReportExtras};
+pub use report::{files, write_report};
 pub use summary::verdict_line;

@@ -14,9 +14,10 @@ use std::collections::BTreeMap;
 use std::fmt::Write as _;
 use std::path::Path;
 
+use motley_scenario::picture::Picture;
+
 use crate::error::ReportError;
 use crate::palette::{self, Rgb};
-use crate::picture::Picture;
 
 /// Largest width and height drawn whole as SVG.
 pub const SVG_LIMIT: usize = 80;
@@ -308,7 +309,28 @@ fn png(pic: &Picture, cols: usize, rows: usize, path: &Path) -> Result<Vec<u8>, 
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::picture::tests::small;
+
+    /// A 3 × 2 grid with colors entering left (rows 0, 1 → colors 1, 2) and bottom (columns → 3, 0, 4),
+    /// routed by hand: every vertex passes on what it receives.
+    fn small() -> Picture {
+        // Row 0: (0,0) gets left 1, bottom 3 -> right 1, up 3.
+        //        (1,0) gets left 1, bottom 0 -> right 0, up 1.
+        //        (2,0) gets left 0, bottom 4 -> right 4, up 0.
+        // Row 1: (0,1) gets left 2, below 3 -> right 3, up 2.
+        //        (1,1) gets left 3, below 1 -> right 1, up 3.
+        //        (2,1) gets left 1, below 0 -> right 0, up 1.
+        let p = Picture {
+            width: 3,
+            height: 2,
+            max_color: 4,
+            left: vec![1, 2],
+            bottom: vec![3, 0, 4],
+            right_out: vec![1, 0, 4, 3, 1, 0],
+            up_out: vec![3, 1, 0, 2, 3, 1],
+        };
+        p.validate().unwrap();
+        p
+    }
 
     #[test]
     fn svg_has_one_path_per_color_and_labels() {

@@ -13,10 +13,11 @@ use std::fmt::Write as _;
 
 use motley_scenario::result::{ClaimResult, RunResult};
 
+use crate::extras::ReportExtras;
 use crate::figures::Figure;
 use crate::format::{cell, code, duration, num, p_value, shell_line, short};
 use crate::picture_draw::DrawnPicture;
-use crate::report::ReportExtras;
+use crate::side::side_label;
 
 /// A bound written compactly: `0`, `1e-13`, `2.35e-14`.
 fn bound(x: f64) -> String {
@@ -104,17 +105,6 @@ fn smallest_adjusted(claim: &ClaimResult) -> Option<f64> {
 /// The anchor of a claim's section.
 fn anchor(stem: &str) -> String {
     format!("claim-{stem}")
-}
-
-/// Label of side `i` of a claim for tables.
-fn side_name(claim: &ClaimResult, own: &str, i: usize) -> String {
-    if !own.trim().is_empty() {
-        own.to_string()
-    } else if let Some(o) = claim.observables.get(i) {
-        o.clone()
-    } else {
-        format!("side {}", i + 1)
-    }
 }
 
 /// Renders the whole summary.
@@ -424,7 +414,7 @@ fn estimates(s: &mut String, claim: &ClaimResult) {
         let mut head = String::from("| Rank |");
         let mut rule = String::from("|---|");
         for (i, _) in &tops {
-            let name = side_name(claim, "", *i);
+            let name = side_label(claim, "", *i);
             let _ = write!(head, " {} | Probability |", code(&name));
             rule.push_str("---|---|");
         }
@@ -452,7 +442,7 @@ fn estimates(s: &mut String, claim: &ClaimResult) {
             let _ = writeln!(
                 s,
                 "| {} | {} | {} | {} |",
-                cell(&side_name(claim, &m.label, i)),
+                cell(&side_label(claim, &m.label, i)),
                 m.count,
                 num(m.mean),
                 num(m.sd)

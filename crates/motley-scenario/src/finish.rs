@@ -2,6 +2,7 @@
 //! them, and evaluates every claim (exact ones by exact laws).
 
 use crate::accumulate::Accumulator;
+use crate::partial_check::Mismatch;
 use crate::plan::Plan;
 use crate::result::{RunResult, ScenarioInfo, Timing, SCHEMA};
 use crate::run::{Partial, PARTIAL_SCHEMA};
@@ -40,6 +41,16 @@ pub enum MergeError {
         found: String,
         /// The expected hash.
         expected: String,
+    },
+    /// Sample counts disagree.
+    #[error("{file}: has {found} samples per side, the first shard has {expected}")]
+    Samples {
+        /// Where it came from.
+        file: String,
+        /// Its samples per side.
+        found: u64,
+        /// The first shard's samples per side.
+        expected: u64,
     },
     /// Shard counts disagree.
     #[error(
@@ -94,7 +105,9 @@ pub enum MergeError {
     Empty,
 }
 
-/// Checks that `partials` (with the files they came from) are exactly the shards of one run of `s`.
+/// Checks that `partials` (with the files they came from) are exactly the shards of one run of `s`:
+/// one sample count, each written for `s` by this motley ([`Partial::check_origin`]), one shard count,
+/// every shard once and complete.
 ///
 /// # Errors
 /// [`MergeError`] naming the offending file.
@@ -102,29 +115,33 @@ pub fn check_partials(s: &Scenario, partials: &[(String, Partial)]) -> Result<()
     let Some((_, first)) = partials.first() else {
         return Err(MergeError::Empty);
     };
+    if let Some((file, p)) = partials.iter().find(|(_, p)| p.samples != first.samples) {
+        return Err(MergeError::Samples {
+            file: file.clone(),
+            found: p.samples,
+            expected: first.samples,
+        });
+    }
     let count = first.shard.count;
     let mut seen: Vec<Option<&str>> = vec![None; count as usize];
     for (file, p) in partials {
-        if p.schema != PARTIAL_SCHEMA {
-            return Err(MergeError::Schema {
-                file: file.clone(),
-                found: p.schema.clone(),
-            });
-        }
-        if p.motley_version != crate::VERSION {
-            return Err(MergeError::Version {
-                file: file.clone(),
-                found: p.motley_version.clone(),
-            });
-        }
-        if p.scenario_hash != s.hash {
-            return Err(MergeError::Foreign {
-                file: file.clone(),
-                name: p.scenario.clone(),
-                found: p.scenario_hash.clone(),
-                expected: s.hash.clone(),
-            });
-        }
+        p.check_origin(s).map_err(|m| {
+            let file = file.clone();
+            match m {
+                Mismatch::Schema { found } => MergeError::Schema { file, found },
+                Mismatch::Version { found } => MergeError::Version { file, found },
+                Mismatch::Scenario {
+                    name,
+                    found,
+                    expected,
+                } => MergeError::Foreign {
+                    file,
+                    name,
+                    found,
+                    expected,
+                },
+            }
+        })?;
         if p.shard.count != count {
             return Err(MergeError::ShardCount {
                 file: file.clone(),
@@ -239,5 +256,64 @@ fn failed(s: &Scenario, ci: usize, e: String) -> crate::result::ClaimResult {
         exact: None,
         estimates: Default::default(),
         stated: None,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::fixtures::{tiny, TINY_FILE};
+    use crate::run::Shard;
+
+    fn shards(s: &Scenario, count: u64) -> Vec<(String, Partial)> {
+        let plan = crate::plan::plan(s, TINY_FILE).unwrap();
+        (1..=count)
+            .map(|index| {
+                let mut p = Partial::empty(s, &plan, Shard { index, count });
+                p.done = p.shard.range(p.samples).1;
+                (format!("shard-{index}/partial.json"), p)
+            })
+            .collect()
+    }
+
+    #[test]
+    fn complete_shards_of_one_run_pass() {
+        let s = tiny();
+        assert_eq!(check_partials(&s, &shards(&s, 3)), Ok(()));
+    }
+
+    #[test]
+    fn sample_counts_must_agree_with_the_first_shard() {
+        let s = tiny();
+        let mut list = shards(&s, 2);
+        list[1].1.samples = 50;
+        // Checked before anything else, so the file with another count is named.
+        list[1].1.scenario_hash = "other".into();
+        let e = check_partials(&s, &list).unwrap_err();
+        assert_eq!(
+            e.to_string(),
+            "shard-2/partial.json: has 50 samples per side, the first shard has 100"
+        );
+    }
+
+    #[test]
+    fn a_foreign_shard_is_named_with_its_scenario() {
+        let s = tiny();
+        let mut list = shards(&s, 2);
+        list[1].1.scenario_hash = "other".into();
+        assert_eq!(
+            check_partials(&s, &list),
+            Err(MergeError::Foreign {
+                file: "shard-2/partial.json".into(),
+                name: "tiny".into(),
+                found: "other".into(),
+                expected: s.hash.clone(),
+            })
+        );
+        list[1].1.motley_version = "0.0.0".into();
+        assert!(matches!(
+            check_partials(&s, &list),
+            Err(MergeError::Version { found, .. }) if found == "0.0.0"
+        ));
     }
 }

@@ -47,8 +47,11 @@ mod exclusion_family;
 mod exclusion_unit;
 pub mod family;
 pub mod finish;
+#[cfg(test)]
+mod fixtures;
 pub mod load;
 pub mod locate;
+pub mod partial_check;
 pub mod picture;
 pub mod plan;
 pub mod raw;
