@@ -8,5 +8,6 @@ mod kernels;
 mod limit_shape;
 mod mean_height_band;
 mod monte_carlo_vs_exact;
+mod permutation_symmetry;
 mod properties;
 mod value_stability;
