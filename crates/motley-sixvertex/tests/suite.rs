@@ -9,4 +9,5 @@ mod limit_shape;
 mod mean_height_band;
 mod monte_carlo_vs_exact;
 mod properties;
+mod q_moment;
 mod value_stability;
