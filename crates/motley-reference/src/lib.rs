@@ -1,7 +1,8 @@
 //! Reference laws and limit shapes to hold simulations of interacting particle systems against:
 //! the Tracy–Widom distributions F₂ (GUE) and F₁ (GOE), the TASEP/ASEP step profile, the
-//! six-vertex step-boundary limit shape with its Tracy–Widom fluctuation scale, and the limit
-//! laws of second-class particles. Pure numerics: no I/O, no dependency on the simulators.
+//! six-vertex step-boundary limit shape with its Tracy–Widom fluctuation scale, the exact q-moments
+//! E[q^H] of the six-vertex step-boundary height function on a grid, and the limit laws of
+//! second-class particles. Pure numerics: no I/O, no dependency on the simulators.
 //!
 //! # Examples
 //! ```
@@ -46,8 +47,8 @@
 //! # Sources
 //! Tracy and Widom (1994, 1996); Bornemann (2010, Math. Comp. 79; 2010, Markov Processes Relat.
 //! Fields 16); Ferrari and Spohn (2005); Rost (1981); Johansson (2000); Tracy and Widom (2009,
-//! ASEP); Borodin, Corwin and Gorin (2016); Ferrari and Kipnis (1995); Amir, Angel and Valkó
-//! (2011); Ferrari, Gonçalves and Martin (2009).
+//! ASEP); Borodin, Corwin and Gorin (2016); Borodin and Gorin (2019, Ann. Probab. 47); Ferrari
+//! and Kipnis (1995); Amir, Angel and Valkó (2011); Ferrari, Gonçalves and Martin (2009).
 
 #![deny(missing_docs)]
 
@@ -58,6 +59,7 @@ mod fredholm;
 mod gauss_legendre;
 mod kpz_scaling;
 mod second_class;
+mod six_vertex_q_moment;
 mod six_vertex_step;
 mod speed_process;
 mod tasep_step;
@@ -70,6 +72,7 @@ pub use kpz_scaling::{SixVertexFluctuation, TasepStepFluctuation};
 pub use second_class::{
     asep_collision_probability, second_class_speed_half_width, TASEP_SWAP_PROBABILITY,
 };
+pub use six_vertex_q_moment::SixVertexQMoments;
 pub use six_vertex_step::SixVertexStep;
 pub use speed_process::SpeedProcessPair;
 pub use tasep_step::TasepStep;

@@ -10,4 +10,5 @@ mod mean_height_band;
 mod monte_carlo_vs_exact;
 mod permutation_symmetry;
 mod properties;
+mod q_moment;
 mod value_stability;
