@@ -40,6 +40,11 @@ pub const EXAMPLES: &[(&str, &str)] = &[
         "strongest-exit-table",
         include_str!("../scenarios/strongest-exit-table.yaml"),
     ),
+    (
+        "permutation-symmetry",
+        include_str!("../scenarios/permutation-symmetry.yaml"),
+    ),
+    ("q-moments", include_str!("../scenarios/q-moments.yaml")),
 ];
 
 /// The text of example `name`.

@@ -6,7 +6,7 @@
 //! ```text
 //! reports/<scenario>/
 //!   summary.md          claims, verdicts, tests, effect sizes, estimates, figures, how to reproduce
-//!   result.json         serde_json of RunResult (schema motley-result/1), pretty, trailing newline
+//!   result.json         serde_json of RunResult (schema motley-result/2), pretty, trailing newline
 //!   scenario.yaml       the scenario text as run
 //!   figures/
 //!     <claim>-ecdf.svg           empirical CDFs with confidence bands against the reference
@@ -21,15 +21,16 @@
 //! ```
 //! use motley_report::{write_report, ReportExtras};
 //! use motley_scenario::result::{
-//!     ClaimResult, Estimates, Interval, RunResult, ScenarioInfo, TestResult, Timing, SCHEMA,
+//!     ClaimKindName, ClaimResult, DecidedBy, Estimates, Interval, RunResult, ScenarioInfo,
+//!     TestResult, Timing, SCHEMA,
 //! };
 //!
 //! let claim = ClaimResult {
 //!     id: "fair-coin".into(),
-//!     kind: "probability".into(),
+//!     kind: ClaimKindName::Probability,
 //!     says: "The coin shows heads with probability 1/2.".into(),
 //!     observables: vec!["heads".into()],
-//!     decided_by: "monte-carlo".into(),
+//!     decided_by: DecidedBy::MonteCarlo,
 //!     rejected: false,
 //!     verdict: "No evidence against probability 1/2.".into(),
 //!     samples: 1000,

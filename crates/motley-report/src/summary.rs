@@ -11,7 +11,7 @@
 
 use std::fmt::Write as _;
 
-use motley_scenario::result::{ClaimResult, RunResult};
+use motley_scenario::result::{ClaimResult, DecidedBy, ExactResult, RunResult, StatedRole};
 
 use crate::extras::ReportExtras;
 use crate::figures::Figure;
@@ -34,12 +34,12 @@ fn bound(x: f64) -> String {
 
 /// Whether `claim` was decided by exact enumeration.
 fn is_exact(claim: &ClaimResult) -> bool {
-    claim.decided_by == "exact" && claim.exact.is_some()
+    claim.decided_by == DecidedBy::Exact && claim.exact.is_some()
 }
 
 /// Whether `claim` only describes (tests nothing).
 fn is_describe(claim: &ClaimResult) -> bool {
-    matches!(claim.kind.as_str(), "describe" | "series" | "joint")
+    claim.kind.describes_only()
 }
 
 /// Whether `claim` was put to a test or an exact decision (and so could raise a false alarm).
@@ -59,17 +59,18 @@ pub fn verdict_line(claim: &ClaimResult, alpha: f64) -> String {
         };
     }
     if let (true, Some(ex)) = (is_exact(claim), &claim.exact) {
-        let tv = ex.total_variation;
+        let d = ex.discrepancy;
+        let what = measure_words(ex);
         let err = bound(ex.error_bound);
-        return match (claim.rejected, tv <= ex.error_bound) {
-            (false, true) => format!("holds exactly (total variation 0 up to {err})"),
+        return match (claim.rejected, d <= ex.error_bound) {
+            (false, true) => format!("holds exactly ({what} 0 up to {err})"),
             (false, false) => format!(
-                "holds exactly within the claim's tolerance (total variation {}, numerical error ≤ {err})",
-                num(tv)
+                "holds exactly within the claim's tolerance ({what} {}, numerical error ≤ {err})",
+                num(d)
             ),
             (true, _) => format!(
-                "REJECTED exactly (total variation {}, numerical error ≤ {err})",
-                num(tv)
+                "REJECTED exactly ({what} {}, numerical error ≤ {err})",
+                num(d)
             ),
         };
     }
@@ -84,12 +85,16 @@ pub fn verdict_line(claim: &ClaimResult, alpha: f64) -> String {
 }
 
 /// Human name of how a claim was decided.
-fn decided(claim: &ClaimResult) -> &str {
-    match claim.decided_by.as_str() {
-        "exact" => "exact",
-        "monte-carlo" => "Monte Carlo",
-        other => other,
+fn decided(claim: &ClaimResult) -> &'static str {
+    match claim.decided_by {
+        DecidedBy::Exact => "exact",
+        DecidedBy::MonteCarlo => "Monte Carlo",
     }
+}
+
+/// What an exact discrepancy measures, in words (`discrepancy` when nothing was compared).
+fn measure_words(ex: &ExactResult) -> &'static str {
+    ex.measure.map_or("discrepancy", |m| m.words())
 }
 
 /// The smallest Holm-adjusted p-value of a claim's tests, if it has tests.
@@ -172,7 +177,7 @@ fn overview(s: &mut String, result: &RunResult, stems: &[String]) {
         let p = smallest_adjusted(claim).map_or("—".into(), p_value);
         let effect = match (&claim.exact, &claim.effect) {
             (Some(ex), _) if is_exact(claim) => {
-                format!("total variation {}", num(ex.total_variation))
+                format!("{} {}", measure_words(ex), num(ex.discrepancy))
             }
             (_, Some(e)) => format!(
                 "{} {} (≤ {})",
@@ -187,7 +192,7 @@ fn overview(s: &mut String, result: &RunResult, stems: &[String]) {
             "| [{}](#{}) | {} | {} | {} | {} | {} |",
             code(&claim.id),
             anchor(stem),
-            cell(&claim.kind),
+            cell(claim.kind.as_str()),
             decided(claim),
             cell(&verdict_line(claim, result.scenario.alpha)),
             p,
@@ -237,7 +242,7 @@ fn claim_section(
     let _ = writeln!(
         s,
         "Kind: {} · observables: {obs} · {samples}.\n",
-        code(&claim.kind)
+        code(claim.kind.as_str())
     );
 
     if !claim.tests.is_empty() {
@@ -327,13 +332,14 @@ fn claim_section(
         let _ = writeln!(s, "### Exact decision\n");
         let _ = writeln!(
             s,
-            "| Total variation | Numerical error bound | Outcomes enumerated | Exact probability |"
+            "| Measure | Value | Numerical error bound | Outcomes enumerated | Exact probability |"
         );
-        let _ = writeln!(s, "|---|---|---|---|");
+        let _ = writeln!(s, "|---|---|---|---|---|");
         let _ = writeln!(
             s,
-            "| {} | {} | {} | {} |\n",
-            num(ex.total_variation),
+            "| {} | {} | {} | {} | {} |\n",
+            measure_words(ex),
+            num(ex.discrepancy),
             bound(ex.error_bound),
             ex.outcomes,
             ex.probability.map_or("—".into(), num)
@@ -363,10 +369,9 @@ fn estimates(s: &mut String, claim: &ClaimResult) {
         return;
     }
     if let Some(st) = &claim.stated {
-        let what = if st.role == "limit" {
-            "Limit quoted beside the measured mean (not tested)"
-        } else {
-            "Stated value"
+        let what = match st.role {
+            StatedRole::Limit => "Limit quoted beside the measured mean (not tested)",
+            StatedRole::Equals => "Stated value",
         };
         let _ = writeln!(s, "### {what}\n");
         let _ = writeln!(

@@ -70,7 +70,7 @@ fn report_has_result_json_summary_and_scenario() {
         v["claims"][0]["tests"][0]["name"],
         "chi-square on the joint law"
     );
-    assert_eq!(v["claims"][2]["exact"]["total_variation"], 0.0);
+    assert_eq!(v["claims"][2]["exact"]["discrepancy"], 0.0);
     assert!(hidden(dir.parent().unwrap()).is_empty());
 }
 

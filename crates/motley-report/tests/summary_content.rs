@@ -7,6 +7,7 @@ use std::fs;
 use std::path::Path;
 
 use motley_report::{verdict_line, write_report, ReportExtras};
+use motley_scenario::result::Discrepancy;
 
 fn write_full(dir: &Path) -> String {
     let extras = ReportExtras::new(
@@ -34,18 +35,23 @@ fn verdict_lines_use_the_fixed_words() {
         [
             "not rejected at α = 0.01",
             "REJECTED at α = 0.01",
-            "holds exactly (total variation 0 up to 1e-13)",
+            "holds exactly (Kolmogorov distance 0 up to 1e-13)",
             "estimated (no test: nothing stated to test against)",
             "described (no claim tested)",
         ]
     );
-    // An exact rejection states the total variation.
+    // An exact rejection states the discrepancy under its own name.
     let mut c = common::exact_law("x");
     c.rejected = true;
-    c.exact.as_mut().unwrap().total_variation = 0.0417;
+    c.exact.as_mut().unwrap().discrepancy = 0.0417;
     assert_eq!(
         verdict_line(&c, alpha),
-        "REJECTED exactly (total variation 0.0417, numerical error ≤ 1e-13)"
+        "REJECTED exactly (Kolmogorov distance 0.0417, numerical error ≤ 1e-13)"
+    );
+    c.exact.as_mut().unwrap().measure = Some(Discrepancy::MeanGap);
+    assert_eq!(
+        verdict_line(&c, alpha),
+        "REJECTED exactly (|mean − m₀| 0.0417, numerical error ≤ 1e-13)"
     );
 }
 
@@ -67,7 +73,7 @@ fn summary_has_overview_verdicts_and_test_table() {
         "**Verdict: not rejected at α = 0.01.**\nNo difference found between the two laws."
     ));
     assert!(md.contains("**Verdict: REJECTED at α = 0.01.**"));
-    assert!(md.contains("**Verdict: holds exactly (total variation 0 up to 1e-13).**"));
+    assert!(md.contains("**Verdict: holds exactly (Kolmogorov distance 0 up to 1e-13).**"));
     // Test table header and rows: statistic, dof, p-value, Holm-adjusted p-value.
     assert!(md.contains(
         "| Test | Statistic | Degrees of freedom | p-value | Holm-adjusted p | At α = 0.01 | Note |"
@@ -125,8 +131,8 @@ fn summary_has_estimate_tables() {
     assert!(md.contains("| 2 | `{3}` | 0.09 | | |"));
     // Moments: an empty label falls back to the observable's name.
     assert!(md.contains("| top-exits | 20000 | 2.4 | 1.21 |"));
-    assert!(md.contains("### Exact decision\n\n| Total variation | Numerical error bound | Outcomes enumerated | Exact probability |"));
-    assert!(md.contains("| 0 | 1e-13 | 11 | — |"));
+    assert!(md.contains("### Exact decision\n\n| Measure | Value | Numerical error bound | Outcomes enumerated | Exact probability |"));
+    assert!(md.contains("| Kolmogorov distance | 0 | 1e-13 | 11 | — |"));
 }
 
 #[test]

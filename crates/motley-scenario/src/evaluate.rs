@@ -31,7 +31,10 @@ use crate::estimate::*;
 use crate::family::{Real, ValueKey};
 use crate::reference_law::{reference_cdf, reference_name};
 use crate::result::Outcome;
-use crate::result::{ClaimResult, Effect, Estimates, Series, Stated, TestResult};
+use crate::result::{
+    ClaimKindName, ClaimResult, DecidedBy, Effect, Estimates, Series, Stated, StatedRole,
+    TestResult,
+};
 use crate::scenario::{ClaimKind, ClaimSpec, ReferenceSpec, Scenario, TableLaw};
 
 struct Family {
@@ -568,23 +571,26 @@ pub fn evaluate(
     let mut est = Estimates::default();
     let name = |i: usize| s.observables[i].name.as_str();
     let mut effect = None;
-    let (kind, observables): (&str, Vec<String>) = match &c.kind {
-        ClaimKind::SameLaw(a, b) => ("same-law", vec![name(*a).into(), name(*b).into()]),
+    let (kind, observables): (ClaimKindName, Vec<String>) = match &c.kind {
+        ClaimKind::SameLaw(a, b) => (
+            ClaimKindName::SameLaw,
+            vec![name(*a).into(), name(*b).into()],
+        ),
         ClaimKind::LawOf(a, ReferenceSpec::TailFromProfile(b)) => {
-            ("law-of", vec![name(*a).into(), name(*b).into()])
+            (ClaimKindName::LawOf, vec![name(*a).into(), name(*b).into()])
         }
-        ClaimKind::LawOf(a, _) => ("law-of", vec![name(*a).into()]),
-        ClaimKind::Probability(a, _) => ("probability", vec![name(*a).into()]),
-        ClaimKind::Describe(a, ..) => ("describe", vec![name(*a).into()]),
+        ClaimKind::LawOf(a, _) => (ClaimKindName::LawOf, vec![name(*a).into()]),
+        ClaimKind::Probability(a, _) => (ClaimKindName::Probability, vec![name(*a).into()]),
+        ClaimKind::Describe(a, ..) => (ClaimKindName::Describe, vec![name(*a).into()]),
         ClaimKind::Series(sr) => (
-            "series",
+            ClaimKindName::Series,
             sr.observables
                 .iter()
                 .map(|&o| name(o).to_string())
                 .collect(),
         ),
-        ClaimKind::Joint(a, b, _) => ("joint", vec![name(*a).into(), name(*b).into()]),
-        ClaimKind::Mean(a, _) => ("mean", vec![name(*a).into()]),
+        ClaimKind::Joint(a, b, _) => (ClaimKindName::Joint, vec![name(*a).into(), name(*b).into()]),
+        ClaimKind::Mean(a, _) => (ClaimKindName::Mean, vec![name(*a).into()]),
     };
     let labels: [&str; 2] = [
         observables.first().map(|s| s.as_str()).unwrap_or(""),
@@ -759,7 +765,7 @@ pub fn evaluate(
             Accumulator::Event(e) if e.n > 0 => {
                 let ph = e.yes as f64 / e.n as f64;
                 Some(Stated {
-                    role: "equals".into(),
+                    role: StatedRole::Equals,
                     value: *p0,
                     estimate: ph,
                     difference: ph - p0,
@@ -772,7 +778,7 @@ pub fn evaluate(
             Accumulator::Scalar(x) if !x.values.is_empty() => {
                 let m = moments("", &x.values);
                 Some(Stated {
-                    role: "limit".into(),
+                    role: StatedRole::Limit,
                     value: *limit,
                     estimate: m.mean,
                     difference: m.mean - limit,
@@ -785,7 +791,7 @@ pub fn evaluate(
             Accumulator::Scalar(x) if !x.values.is_empty() => {
                 let m = moments("", &x.values);
                 Some(Stated {
-                    role: "equals".into(),
+                    role: StatedRole::Equals,
                     value: *m0,
                     estimate: m.mean,
                     difference: m.mean - m0,
@@ -805,10 +811,10 @@ pub fn evaluate(
     let verdict = verdict(s, c, rejected, &effect);
     ClaimResult {
         id: c.id.clone(),
-        kind: kind.into(),
+        kind,
         says: c.says.clone(),
         observables,
-        decided_by: "monte-carlo".into(),
+        decided_by: DecidedBy::MonteCarlo,
         rejected,
         verdict,
         samples,

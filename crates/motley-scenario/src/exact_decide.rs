@@ -10,7 +10,10 @@ use std::collections::BTreeMap;
 
 use crate::estimate::show_value;
 use crate::family::{ObservableLaw, RationalLaw, ValueKey};
-use crate::result::{ClaimResult, Estimates, ExactResult, Interval, Moments, Outcome, Stated};
+use crate::result::{
+    ClaimKindName, ClaimResult, DecidedBy, Discrepancy, Estimates, ExactResult, Interval, Moments,
+    Outcome, Stated, StatedRole,
+};
 use crate::scenario::*;
 
 /// Floating-point slack allowed on exact f64 computations.
@@ -107,9 +110,9 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             est.top_outcomes.push(top(&lb.cells));
             let n = la.cells.len().max(lb.cells.len());
             (
-                "same-law",
+                ClaimKindName::SameLaw,
                 vec![name(*a), name(*b)],
-                Some(d),
+                Some((Discrepancy::TotalVariation, d)),
                 None,
                 la.error + lb.error,
                 n,
@@ -119,9 +122,9 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         ClaimKind::Probability(a, eq) => {
             let l = observable_law(s, *a)?;
             let p = exact_event(&l, name(*a), &mut est);
-            let d = eq.map(|v| (p - v).abs());
+            let d = eq.map(|v| (Discrepancy::ProbabilityGap, (p - v).abs()));
             (
-                "probability",
+                ClaimKindName::Probability,
                 vec![name(*a)],
                 d,
                 Some(p),
@@ -160,9 +163,9 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 worst = worst.max((tail - occ).abs());
             }
             (
-                "law-of",
+                ClaimKindName::LawOf,
                 vec![name(*a), name(*b)],
-                Some(worst),
+                Some((Discrepancy::TailGap, worst)),
                 None,
                 lx.error + lp.error,
                 lx.cells.len(),
@@ -191,9 +194,9 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             let d = rational.unwrap_or_else(|| tv(&l.cells, &t.cells));
             est.top_outcomes.push(top(&l.cells));
             (
-                "law-of",
+                ClaimKindName::LawOf,
                 vec![name(*a)],
-                Some(d),
+                Some((Discrepancy::TotalVariation, d)),
                 None,
                 l.error,
                 l.cells.len(),
@@ -213,9 +216,9 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             });
             let scale = xs.iter().map(|(x, _)| x.abs()).fold(0.0, f64::max);
             (
-                "mean",
+                ClaimKindName::Mean,
                 vec![name(*a)],
-                equals.map(|m0| (mean - m0).abs()),
+                equals.map(|m0| (Discrepancy::MeanGap, (mean - m0).abs())),
                 None,
                 l.error * scale.max(1.0),
                 l.cells.len(),
@@ -233,9 +236,9 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 worst = worst.max((acc - f(x)).abs());
             }
             (
-                "law-of",
+                ClaimKindName::LawOf,
                 vec![name(*a)],
-                Some(worst),
+                Some((Discrepancy::KolmogorovDistance, worst)),
                 None,
                 l.error,
                 l.cells.len(),
@@ -261,7 +264,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
                 exact_event(&l, name(*a), &mut est);
             }
             (
-                "describe",
+                ClaimKindName::Describe,
                 vec![name(*a)],
                 None,
                 None,
@@ -273,21 +276,21 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
     };
     let stated = match &c.kind {
         ClaimKind::Probability(_, Some(v)) => probability.map(|p| Stated {
-            role: "equals".into(),
+            role: StatedRole::Equals,
             value: *v,
             estimate: p,
             difference: p - v,
             half_width: 0.0,
         }),
         ClaimKind::Mean(_, Some(v)) => est.moments.first().map(|m| Stated {
-            role: "equals".into(),
+            role: StatedRole::Equals,
             value: *v,
             estimate: m.mean,
             difference: m.mean - v,
             half_width: 0.0,
         }),
         ClaimKind::Describe(_, _, Some(v)) => est.moments.first().map(|m| Stated {
-            role: "limit".into(),
+            role: StatedRole::Limit,
             value: *v,
             estimate: m.mean,
             difference: m.mean - v,
@@ -306,35 +309,50 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
     } else {
         error + EXACT_TOLERANCE
     };
-    let rejected = discrepancy.is_some_and(|d| d > tolerance);
-    let verdict = match (kind, discrepancy) {
-        ("describe", _) => "no claim: exact law shown".to_string(),
-        ("mean", None) => "no stated value: exact mean shown".to_string(),
-        (_, None) => "no stated value: exact probability shown".to_string(),
-        (_, Some(d)) if rejected => format!(
-            "REJECTED exactly: the exact discrepancy is {d:.6e} (tolerance {tolerance:.1e})"
+    let rejected = discrepancy.is_some_and(|(_, d)| d > tolerance);
+    let verdict = match discrepancy {
+        None => match kind {
+            ClaimKindName::Mean => "no stated value: exact mean shown".to_string(),
+            ClaimKindName::Probability => "no stated value: exact probability shown".to_string(),
+            ClaimKindName::SameLaw
+            | ClaimKindName::LawOf
+            | ClaimKindName::Describe
+            | ClaimKindName::Series
+            | ClaimKindName::Joint
+            | ClaimKindName::Error => "no claim: exact law shown".to_string(),
+        },
+        Some((m, d)) if rejected => format!(
+            "REJECTED exactly: the exact {} is {d:.6e} (tolerance {tolerance:.1e})",
+            m.words()
         ),
-        (_, Some(d)) => {
+        Some((m, d)) => {
             if rational {
-                "holds exactly at this size (computed in rationals: discrepancy 0)".to_string()
+                format!(
+                    "holds exactly at this size (computed in rationals: {} 0)",
+                    m.words()
+                )
             } else {
-                format!("holds exactly at this size (discrepancy {d:.1e}, within the numerical bound {tolerance:.1e})")
+                format!(
+                    "holds exactly at this size ({} {d:.1e}, within the numerical bound {tolerance:.1e})",
+                    m.words()
+                )
             }
         }
     };
     Ok(ClaimResult {
         id: c.id.clone(),
-        kind: kind.into(),
+        kind,
         says: c.says.clone(),
         observables,
-        decided_by: "exact".into(),
+        decided_by: DecidedBy::Exact,
         rejected,
         verdict,
         samples: 0,
         tests: Vec::new(),
         effect: None,
         exact: Some(ExactResult {
-            total_variation: discrepancy.unwrap_or(0.0),
+            measure: discrepancy.map(|(m, _)| m),
+            discrepancy: discrepancy.map_or(0.0, |(_, d)| d),
             probability,
             outcomes,
             error_bound: if rational { 0.0 } else { error },

@@ -18,7 +18,7 @@ use crate::family::{
 use crate::raw::{RawRead, RawSetKind};
 use crate::read_set::set_elements;
 use crate::scenario::{
-    ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, ReadSpec, SetRead,
+    ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, Profile, ReadSpec, SetRead,
     ValueKind,
 };
 
@@ -108,13 +108,20 @@ pub(crate) fn read<'s>(
 ) -> Value<'s> {
     let number = |v: f64| Value::Number(o.number(v));
     let reading = readings.get(first);
+    // The engine answers each read-out with the reading it asked for; another one reads as empty.
     let colors = || match reading {
         Some(Reading::Colors(c)) => c.as_slice(),
-        _ => &[],
+        Some(
+            Reading::Positions(_) | Reading::Classes(_) | Reading::Count(_) | Reading::Flag(_),
+        )
+        | None => &[],
     };
     let count = || match reading {
         Some(Reading::Count(v)) => *v as f64,
-        _ => 0.0,
+        Some(
+            Reading::Colors(_) | Reading::Positions(_) | Reading::Classes(_) | Reading::Flag(_),
+        )
+        | None => 0.0,
     };
     let flag = |k: usize| matches!(readings.get(first + k), Some(Reading::Flag(true)));
     match *read_of(o) {
@@ -129,7 +136,10 @@ pub(crate) fn read<'s>(
         }
         ExclusionRead::Position(..) => number(match reading {
             Some(Reading::Positions(p)) => p.first().copied().unwrap_or(0) as f64,
-            _ => 0.0,
+            Some(
+                Reading::Colors(_) | Reading::Classes(_) | Reading::Count(_) | Reading::Flag(_),
+            )
+            | None => 0.0,
         }),
         ExclusionRead::Arrangement(_) => {
             let seq = &mut scratch.sequence;
@@ -485,11 +495,15 @@ impl ModelFamily for ExclusionSpec {
 
     fn profile_value(
         &self,
-        profile: &str,
+        profile: Profile,
         model: &ModelSpec,
         o: &ObservableSpec,
     ) -> Result<Option<f64>, String> {
-        let (ExclusionRead::Height(x, t), "tasep-step-count") = (read_of(o), profile) else {
+        let wanted = match profile {
+            Profile::TasepStepCount => o.base.is_none(),
+            Profile::SixVertexStepHeight | Profile::SixVertexQMoment => false,
+        };
+        let (ExclusionRead::Height(x, t), true) = (read_of(o), wanted) else {
             return Ok(None);
         };
         let at = match &self.initial {
@@ -511,8 +525,9 @@ impl ModelFamily for ExclusionSpec {
             .map_err(|e| format!("model \"{}\": {e}", model.name))?;
         // Particles on sites < at: the count right of x is that of step data at 1 for the site
         // x − (at − 1).
-        Ok(Some(
-            shape.particles_right_of((x - (at - 1)) as f64, self.times[*t]),
-        ))
+        Ok(Some(o.number(shape.particles_right_of(
+            (x - (at - 1)) as f64,
+            self.times[*t],
+        ))))
     }
 }

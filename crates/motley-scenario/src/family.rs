@@ -7,6 +7,20 @@
 //! to [`ModelFamily`] only, so a new family is a new module, a [`ModelKind`] variant and a
 //! [`ReadSpec`] variant; the compiler then names the one dispatch that must learn it.
 //!
+//! Matches over families, read-outs and claim kinds have no catch-all arm, so a match that forgets a
+//! variant does not compile (`tests/no_catch_all.rs` keeps the boundary files free of `_ =>`):
+//!
+//! ```compile_fail
+//! use motley_scenario::scenario::SixVertexRead;
+//!
+//! // Forgets `Row`, `Column`, `Height`, `ExitColumn` and `ExitPermutation`: error E0004.
+//! fn exits_only(r: SixVertexRead) -> bool {
+//!     match r {
+//!         SixVertexRead::Top(_) | SixVertexRead::Right(_) => true,
+//!     }
+//! }
+//! ```
+//!
 //! Monte Carlo and exact mode read an observable through the same function of each family: it turns
 //! what the family sees (one sample's read-out, or one outcome of the exact law) into a [`Value`].
 //! Monte Carlo feeds values to accumulators; exact mode turns them into [`ValueKey`]s and adds up
@@ -17,7 +31,7 @@ use motley_colorblind::Color;
 use crate::checker::Checker;
 use crate::error::ScenarioError;
 use crate::raw::RawRead;
-use crate::scenario::{ModelKind, ModelSpec, ObservableSpec, ReadSpec, ValueKind};
+use crate::scenario::{ModelKind, ModelSpec, ObservableSpec, Profile, ReadSpec, ValueKind};
 
 /// One observable's value in one sample, borrowed from the reader's buffers.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -247,14 +261,15 @@ pub trait ModelFamily {
     /// profile; `None` when `read` is no such window.
     fn window_origin(&self, read: &ReadSpec) -> Option<i64>;
 
-    /// The value of the named `profile` at observable `o` (before its shift and scale); `None` when
-    /// the profile is not one of this family's read-outs.
+    /// The value the named `profile` predicts for the mean of observable `o` (its shift, scale and
+    /// base applied as the profile allows); `None` when the profile does not apply to this
+    /// family's read-out of `o`.
     ///
     /// # Errors
     /// Why the profile does not apply to this model (its boundary or initial data).
     fn profile_value(
         &self,
-        profile: &str,
+        profile: Profile,
         model: &ModelSpec,
         o: &ObservableSpec,
     ) -> Result<Option<f64>, String>;

@@ -4,7 +4,7 @@
 use crate::accumulate::Accumulator;
 use crate::partial_check::Mismatch;
 use crate::plan::Plan;
-use crate::result::{RunResult, ScenarioInfo, Timing, SCHEMA};
+use crate::result::{ClaimKindName, DecidedBy, RunResult, ScenarioInfo, Timing, SCHEMA};
 use crate::run::{Partial, PARTIAL_SCHEMA};
 use crate::scenario::Scenario;
 
@@ -244,10 +244,10 @@ fn failed(s: &Scenario, ci: usize, e: String) -> crate::result::ClaimResult {
     let c = &s.claims[ci];
     crate::result::ClaimResult {
         id: c.id.clone(),
-        kind: "error".into(),
+        kind: ClaimKindName::Error,
         says: c.says.clone(),
         observables: Vec::new(),
-        decided_by: "exact".into(),
+        decided_by: DecidedBy::Exact,
         rejected: false,
         verdict: format!("exact law unavailable: {e}"),
         samples: 0,

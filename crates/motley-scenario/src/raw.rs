@@ -233,7 +233,7 @@ pub struct RawObservable {
     /// Raise this base to the number (after `shift` and `scale`): the value becomes
     /// `base^((value + shift) × scale)`, e.g. `q^H` for a q-moment.
     #[serde(default)]
-    pub base: Option<f64>,
+    pub base: Option<RawNumber>,
 }
 
 /// `map:` values.
@@ -498,6 +498,10 @@ pub struct RawMean {
     /// A stated value to test against.
     #[serde(default)]
     pub equals: Option<f64>,
+    /// A named profile giving the stated value at the observable's coordinates (instead of
+    /// `equals`).
+    #[serde(default)]
+    pub profile: Option<String>,
 }
 
 /// A value in an explicit law: a number, a yes/no, or a list of integers (a set or a sequence).

@@ -122,9 +122,10 @@ pub(crate) fn observable(
             s
         }
     };
-    let base = match o.base {
+    let base = match &o.base {
         None => None,
         Some(b) => {
+            let b = ck.number(&format!("{path}.base"), b)?.value;
             if !matches!(kind, ValueKind::Scalar { .. }) {
                 return Err(ck.error(
                     &format!("{path}.base"),

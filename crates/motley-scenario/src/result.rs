@@ -1,4 +1,4 @@
-//! The machine-readable result of a run: the content of `result.json`, schema `motley-result/1`.
+//! The machine-readable result of a run: the content of `result.json`, schema `motley-result/2`.
 //!
 //! Field meanings are documented in `docs/result-schema.md` and checked against
 //! `docs/result.schema.json` by the tests. Only the fields under `timing` may differ between two runs
@@ -7,7 +7,7 @@
 use serde::{Deserialize, Serialize};
 
 /// The schema identifier written into every result.
-pub const SCHEMA: &str = "motley-result/1";
+pub const SCHEMA: &str = "motley-result/2";
 
 /// A whole result.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -66,14 +66,14 @@ pub struct Timing {
 pub struct ClaimResult {
     /// Claim id.
     pub id: String,
-    /// `same-law`, `law-of`, `probability` or `describe`.
-    pub kind: String,
+    /// What the claim says.
+    pub kind: ClaimKindName,
     /// The claim in words.
     pub says: String,
     /// Observables involved, by name.
     pub observables: Vec<String>,
-    /// `exact` or `monte-carlo`.
-    pub decided_by: String,
+    /// How it was decided.
+    pub decided_by: DecidedBy,
     /// Whether the claim is rejected at `alpha` (always false for `describe`).
     pub rejected: bool,
     /// One sentence: the verdict and what it means.
@@ -93,11 +93,110 @@ pub struct ClaimResult {
     pub stated: Option<Stated>,
 }
 
+/// The kind of a claim, as results name it.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum ClaimKindName {
+    /// Two observables have the same law.
+    SameLaw,
+    /// An observable follows a reference law.
+    LawOf,
+    /// An event's probability.
+    Probability,
+    /// The law described, nothing tested.
+    Describe,
+    /// Observables along a parameter, nothing tested.
+    Series,
+    /// A joint law of two numbers, nothing tested.
+    Joint,
+    /// The mean of a number.
+    Mean,
+    /// An exact law could not be computed.
+    Error,
+}
+
+impl ClaimKindName {
+    /// The name results and reports use (`same-law`, …).
+    pub fn as_str(self) -> &'static str {
+        match self {
+            ClaimKindName::SameLaw => "same-law",
+            ClaimKindName::LawOf => "law-of",
+            ClaimKindName::Probability => "probability",
+            ClaimKindName::Describe => "describe",
+            ClaimKindName::Series => "series",
+            ClaimKindName::Joint => "joint",
+            ClaimKindName::Mean => "mean",
+            ClaimKindName::Error => "error",
+        }
+    }
+
+    /// Whether the claim only describes (tests nothing by its kind).
+    pub fn describes_only(self) -> bool {
+        match self {
+            ClaimKindName::Describe | ClaimKindName::Series | ClaimKindName::Joint => true,
+            ClaimKindName::SameLaw
+            | ClaimKindName::LawOf
+            | ClaimKindName::Probability
+            | ClaimKindName::Mean
+            | ClaimKindName::Error => false,
+        }
+    }
+}
+
+/// How a claim was decided.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum DecidedBy {
+    /// By exact laws.
+    Exact,
+    /// By samples.
+    MonteCarlo,
+}
+
+/// Whether a stated value is tested or only quoted.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum StatedRole {
+    /// Tested: `equals` of a probability or a mean (or a mean's profile).
+    Equals,
+    /// Quoted beside a described number, not tested.
+    Limit,
+}
+
+/// What an exact discrepancy measures.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Discrepancy {
+    /// Total variation between two laws, or between a law and a table.
+    TotalVariation,
+    /// Kolmogorov distance between a law and a reference CDF.
+    KolmogorovDistance,
+    /// Largest gap between P(X ≥ x) and a profile's occupation, over the sites.
+    TailGap,
+    /// |P − p₀| for a stated probability p₀.
+    ProbabilityGap,
+    /// |mean − m₀| for a stated mean m₀.
+    MeanGap,
+}
+
+impl Discrepancy {
+    /// The measure in words, for reports.
+    pub fn words(self) -> &'static str {
+        match self {
+            Discrepancy::TotalVariation => "total variation",
+            Discrepancy::KolmogorovDistance => "Kolmogorov distance",
+            Discrepancy::TailGap => "largest tail gap",
+            Discrepancy::ProbabilityGap => "|P − p₀|",
+            Discrepancy::MeanGap => "|mean − m₀|",
+        }
+    }
+}
+
 /// A value the scenario states beside an estimate.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct Stated {
-    /// `equals` (tested) or `limit` (quoted, not tested).
-    pub role: String,
+    /// Tested or only quoted.
+    pub role: StatedRole,
     /// The value.
     pub value: f64,
     /// The estimate it is compared with (probability or mean).
@@ -143,8 +242,11 @@ pub struct Effect {
 /// An exact decision.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct ExactResult {
-    /// Exact total variation between the two laws (same-law), or between the law and the reference.
-    pub total_variation: f64,
+    /// What `discrepancy` measures (`null` when nothing was compared, as for `describe`).
+    pub measure: Option<Discrepancy>,
+    /// The exact discrepancy between what the claim says and the exact law (0 when nothing was
+    /// compared).
+    pub discrepancy: f64,
     /// Exact probability (probability claims).
     pub probability: Option<f64>,
     /// Outcomes in the larger of the laws.

@@ -339,6 +339,47 @@ pub struct SeriesSpec {
     pub profile: Option<ProfileSpec>,
 }
 
+/// The named profiles: functions of a model's parameters and a read-out's coordinates that predict
+/// the mean of an observable.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Profile {
+    /// The six-vertex step-boundary limit shape, L·h(x/L, y/L).
+    SixVertexStepHeight,
+    /// Particles right of x at time t from TASEP/ASEP step data.
+    TasepStepCount,
+    /// E q^H(x, y) under the step boundary, q = b1/b2, by the four-point recursion.
+    SixVertexQMoment,
+}
+
+impl Profile {
+    /// Every profile, in the order messages list them.
+    pub const ALL: [Profile; 3] = [
+        Profile::SixVertexStepHeight,
+        Profile::TasepStepCount,
+        Profile::SixVertexQMoment,
+    ];
+
+    /// The profile's name in files.
+    pub fn name(self) -> &'static str {
+        match self {
+            Profile::SixVertexStepHeight => "six-vertex-step-height",
+            Profile::TasepStepCount => "tasep-step-count",
+            Profile::SixVertexQMoment => "six-vertex-q-moment",
+        }
+    }
+
+    /// The read-out the profile needs, in words, for messages.
+    pub fn needs(self) -> &'static str {
+        match self {
+            Profile::SixVertexStepHeight => "a six-vertex `height` read without `base`",
+            Profile::TasepStepCount => "an exclusion `height` read without `base`",
+            Profile::SixVertexQMoment => {
+                "a six-vertex `height` read with `base` equal to q = b1/b2 and no `shift` or `scale`"
+            }
+        }
+    }
+}
+
 /// A named profile, resolved per observable into predicted values.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ProfileSpec {

@@ -2,7 +2,7 @@
 //! function (shared by Monte Carlo and exact mode), its exact laws, cost and profile.
 
 use motley_colorblind::Color;
-use motley_reference::SixVertexStep;
+use motley_reference::{SixVertexQMoments, SixVertexStep};
 use motley_sixvertex::{exact_law, ratio, Outcome, Readout};
 
 use crate::error::ScenarioError;
@@ -12,7 +12,7 @@ use crate::family::{
 use crate::raw::{RawPermutationRead, RawRead, RawSetKind};
 use crate::read_set::set_elements;
 use crate::scenario::{
-    BoundarySpec, ModelSpec, ObservableSpec, ReadSpec, SetRead, SixVertexSpec, ValueKind,
+    BoundarySpec, ModelSpec, ObservableSpec, Profile, ReadSpec, SetRead, SixVertexSpec, ValueKind,
 };
 use crate::six_vertex_unit::{build, SixVertexUnit};
 
@@ -389,20 +389,39 @@ impl ModelFamily for SixVertexSpec {
 
     fn profile_value(
         &self,
-        profile: &str,
+        profile: Profile,
         model: &ModelSpec,
         o: &ObservableSpec,
     ) -> Result<Option<f64>, String> {
-        let (SixVertexRead::Height(x, y), "six-vertex-step-height") = (read_of(o), profile) else {
+        let SixVertexRead::Height(x, y) = *read_of(o) else {
             return Ok(None);
         };
+        let linear = o.base.is_none();
+        let q = self.b1.value / self.b2.value;
+        let q_power = o.base.is_some_and(|b| (b - q).abs() <= 1e-12 * q.max(1.0))
+            && o.shift == 0.0
+            && o.scale == 1.0;
+        let wanted = match profile {
+            Profile::SixVertexStepHeight => linear,
+            Profile::SixVertexQMoment => q_power,
+            Profile::TasepStepCount => false,
+        };
+        if !wanted {
+            return Ok(None);
+        }
         let step = matches!(&self.left, BoundarySpec::Fixed(c) if c.iter().all(|&c| c >= 1 && o.threshold.is_none_or(|t| c >= t)))
             && matches!(&self.bottom, BoundarySpec::Fixed(c) if c.iter().all(|&c| c == 0 || o.threshold.is_some_and(|t| c < t)));
         if !step {
-            return Err(format!("`six-vertex-step-height` needs the step boundary (a path on every left edge, none from below), but model \"{}\" of \"{}\" has other boundary data", model.name, o.name));
+            return Err(format!("`{}` needs the step boundary (a path on every left edge, none from below), but model \"{}\" of \"{}\" has other boundary data", profile.name(), model.name, o.name));
+        }
+        if profile == Profile::SixVertexQMoment {
+            let table =
+                SixVertexQMoments::new(self.b1.value, self.b2.value, self.width, self.height)
+                    .map_err(|e| format!("model \"{}\": {e}", model.name))?;
+            return Ok(Some(table.mean_q_power(x, y)));
         }
         let shape = SixVertexStep::from_weights(self.b1.value, self.b2.value)
             .map_err(|e| format!("model \"{}\": {e}", model.name))?;
-        Ok(Some(shape.height(*x as f64, *y as f64)))
+        Ok(Some(o.number(shape.height(x as f64, y as f64))))
     }
 }

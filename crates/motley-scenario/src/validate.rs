@@ -488,10 +488,25 @@ fn claim(
                 ),
             ));
         }
-        if let Some(v) = mn.equals {
-            ck.finite(&format!("{p}.equals"), v)?;
-        }
-        ClaimKind::Mean(i, mn.equals)
+        let stated = match (mn.equals, &mn.profile) {
+            (Some(_), Some(_)) => {
+                return Err(ck.error(&p, "give `equals` or `profile`, not both"));
+            }
+            (Some(v), None) => Some(ck.finite(&format!("{p}.equals"), v)?),
+            (None, Some(name)) => {
+                let pr = crate::validate_series::profile(
+                    ck,
+                    &format!("{p}.profile"),
+                    name,
+                    &[i],
+                    obs,
+                    models,
+                )?;
+                Some(pr.values[0])
+            }
+            (None, None) => None,
+        };
+        ClaimKind::Mean(i, stated)
     } else if let Some(l) = &c.law_of {
         let p = format!("{path}.law-of");
         let i = find(&format!("{p}.observable"), &l.observable)?;

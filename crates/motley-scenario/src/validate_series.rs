@@ -9,12 +9,6 @@ use crate::error::ScenarioError;
 use crate::raw::{RawClaim, RawReference, RawSeries};
 use crate::scenario::*;
 
-/// Profile names a `series` accepts.
-pub const SERIES_PROFILES: [(&str, &str); 2] = [
-    ("six-vertex-step-height", "a six-vertex `height` read"),
-    ("tasep-step-count", "an exclusion `height` read"),
-];
-
 /// Largest number of observables in one series (a figure stays readable).
 pub const MAX_SERIES: usize = 200;
 
@@ -163,8 +157,8 @@ pub(crate) fn series(
     }))
 }
 
-/// Resolves a named profile at each observable of a series.
-fn profile(
+/// Resolves a named profile at each observable of a series (or of a `mean` claim).
+pub(crate) fn profile(
     ck: &Checker,
     path: &str,
     name: &str,
@@ -176,18 +170,15 @@ fn profile(
     for &i in idx {
         let o = &obs[i];
         let m = &models[o.model];
-        let Some(needs) = SERIES_PROFILES
-            .iter()
-            .find(|(n, _)| *n == name)
-            .map(|(_, needs)| needs)
-        else {
-            let known: Vec<&str> = SERIES_PROFILES.iter().map(|(n, _)| *n).collect();
+        let Some(profile) = Profile::ALL.into_iter().find(|p| p.name() == name) else {
+            let known: Vec<&str> = Profile::ALL.iter().map(|p| p.name()).collect();
             return Err(ck.error(
                 path,
                 format!("unknown profile \"{name}\"; known: {}", known.join(", ")),
             ));
         };
-        let v = match m.kind.family().profile_value(name, m, o) {
+        let needs = profile.needs();
+        let v = match m.kind.family().profile_value(profile, m, o) {
             Ok(Some(v)) => v,
             Ok(None) => {
                 return Err(ck.error(
@@ -200,7 +191,7 @@ fn profile(
             }
             Err(why) => return Err(ck.error(path, why)),
         };
-        values.push(o.number(v));
+        values.push(v);
     }
     Ok(ProfileSpec {
         name: name.to_string(),

@@ -68,6 +68,7 @@ fn all_keys() -> BTreeSet<String> {
         accepted::<RawNormal>(s),
         accepted::<RawProbability>(s),
         accepted::<RawMean>(s),
+        accepted::<RawPermutationRead>(u),
         accepted::<RawExactMode>(u),
         accepted::<RawStrength>(u),
     ];

@@ -2,3 +2,4 @@
 
 mod fuzz_loader;
 mod guide;
+mod no_catch_all;

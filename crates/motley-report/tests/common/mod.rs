@@ -5,8 +5,8 @@
 
 use motley_report::Picture;
 use motley_scenario::result::{
-    ClaimResult, Effect, Estimates, ExactResult, Interval, Moments, Outcome, RunResult,
-    ScenarioInfo, Series, TestResult, Timing, SCHEMA,
+    ClaimKindName, ClaimResult, DecidedBy, Discrepancy, Effect, Estimates, ExactResult, Interval,
+    Moments, Outcome, RunResult, ScenarioInfo, Series, TestResult, Timing, SCHEMA,
 };
 
 /// A curve with a band of half-width `half` around `y`.
@@ -94,10 +94,10 @@ pub fn same_law(id: &str, rejected: bool, alpha: f64) -> ClaimResult {
     };
     ClaimResult {
         id: id.into(),
-        kind: "same-law".into(),
+        kind: ClaimKindName::SameLaw,
         says: "Colors leaving through the top have the law of the colorblind occupation of the transposed rectangle.".into(),
         observables: vec!["top-exits".into(), "transposed-occupation".into()],
-        decided_by: "monte-carlo".into(),
+        decided_by: DecidedBy::MonteCarlo,
         rejected,
         verdict: if rejected {
             "The two laws differ.".into()
@@ -151,17 +151,18 @@ pub fn exact_law(id: &str) -> ClaimResult {
     let y: Vec<f64> = x.iter().map(|v| (v + 5.0 + 1.0) / 11.0).collect();
     ClaimResult {
         id: id.into(),
-        kind: "law-of".into(),
+        kind: ClaimKindName::LawOf,
         says: "The second-class particle's position at time 3 has the law given by the density profile.".into(),
         observables: vec!["second-class-position".into()],
-        decided_by: "exact".into(),
+        decided_by: DecidedBy::Exact,
         rejected: false,
         verdict: "Equal laws at this size.".into(),
         samples: 0,
         tests: vec![],
         effect: None,
         exact: Some(ExactResult {
-            total_variation: 0.0,
+            measure: Some(Discrepancy::KolmogorovDistance),
+            discrepancy: 0.0,
             probability: None,
             outcomes: 11,
             error_bound: 1e-13,
@@ -179,11 +180,11 @@ pub fn exact_law(id: &str) -> ClaimResult {
 pub fn swap_probability(id: &str) -> ClaimResult {
     ClaimResult {
         id: id.into(),
-        kind: "probability".into(),
+        kind: ClaimKindName::Probability,
         says: "Probability that the second- and third-class particles have swapped by time t."
             .into(),
         observables: vec!["swapped".into()],
-        decided_by: "monte-carlo".into(),
+        decided_by: DecidedBy::MonteCarlo,
         rejected: false,
         verdict: "Estimated with intervals.".into(),
         samples: 4000,
@@ -212,10 +213,10 @@ pub fn swap_probability(id: &str) -> ClaimResult {
 pub fn describe(id: &str) -> ClaimResult {
     ClaimResult {
         id: id.into(),
-        kind: "describe".into(),
+        kind: ClaimKindName::Describe,
         says: "".into(),
         observables: vec!["corner-occupied".into()],
-        decided_by: "monte-carlo".into(),
+        decided_by: DecidedBy::MonteCarlo,
         rejected: false,
         verdict: "".into(),
         samples: 4000,
