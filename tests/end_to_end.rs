@@ -1,6 +1,7 @@
 //! The end-to-end tests, one binary: each module runs the real `motley` binary on scenarios.
 
 mod bad_scenarios;
+mod combined_observables;
 mod committed_reports;
 mod common;
 mod interruption;

@@ -113,6 +113,48 @@ fn a_table_of_fractions_is_matched_exactly() {
     assert_eq!(exact["measure"].as_str(), Some("total-variation"));
     assert_eq!(exact["discrepancy"].as_f64(), Some(0.0));
     assert_eq!(exact["error_bound"].as_f64(), Some(0.0));
+    // The full exact law, in rationals, in value order (exit column 0 = through the right side).
+    let rows = v["claims"][0]["estimates"]["laws"][0]["rows"]
+        .as_array()
+        .unwrap();
+    let got: Vec<(&str, &str)> = rows
+        .iter()
+        .map(|r| {
+            (
+                r["value"].as_str().unwrap(),
+                r["fraction"].as_str().unwrap(),
+            )
+        })
+        .collect();
+    assert_eq!(
+        got,
+        vec![
+            ("0", "1/81"),
+            ("1", "2/3"),
+            ("2", "2/9"),
+            ("3", "2/27"),
+            ("4", "2/81")
+        ]
+    );
+    let csv = std::fs::read_to_string(out.join("laws/exact-table.csv")).unwrap();
+    assert!(csv.starts_with(
+        "observable,value,count,probability,fraction
+"
+    ));
+    assert!(
+        csv.contains("strongest-short,1,,0.6666666666666666,2/3\n"),
+        "{csv}"
+    );
+    // Monte Carlo: every observed outcome with its count; the counts add up to the samples.
+    let mc = &v["claims"][1]["estimates"]["laws"][0];
+    let total: u64 = mc["rows"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|r| r["count"].as_u64().unwrap())
+        .sum();
+    assert_eq!(total, 2000);
+    assert_eq!(mc["samples"].as_u64(), Some(2000));
     // b2 = 2/5 instead of 1/3: the first cell alone differs by 1/15, which is the whole distance.
     let wrong = v["claims"][2]["exact"]["discrepancy"].as_f64().unwrap();
     assert!((wrong - 1.0 / 15.0).abs() < 1e-15, "{wrong}");

@@ -109,6 +109,7 @@ mod extras;
 mod figures;
 mod format;
 mod heatmap;
+mod law_table;
 mod palette;
 mod picture_draw;
 mod report;

@@ -4,11 +4,12 @@
 use std::fs;
 use std::path::{Path, PathBuf};
 
-use motley_scenario::result::RunResult;
+use motley_scenario::result::{ClaimResult, RunResult};
 
 use crate::atomic::{json_text, sync_dir, write_synced, Staging};
 use crate::error::ReportError;
 use crate::extras::ReportExtras;
+use crate::law_table::LAWS;
 
 /// Names of the files in a report folder.
 pub mod files {
@@ -27,7 +28,8 @@ pub mod files {
 /// The folder holds `summary.md`, `result.json` (pretty JSON with a trailing newline), `scenario.yaml`
 /// and `figures/` (`<claim>-ecdf.svg`, `<claim>-inclusion.svg`, `<claim>-size-law.svg`,
 /// `<claim>-probabilities.svg` where the claim has the data; `sample.svg`, or `sample.png` and
-/// `sample-corner.svg` for a large picture). Missing parent folders are created.
+/// `sample-corner.svg` for a large picture), and `laws/<claim>.csv` for each claim with full laws
+/// (see `law_table`). Missing parent folders are created.
 ///
 /// Everything is written into a hidden sibling `.{name}.partial-{pid}-{n}` first and renamed to `dir`
 /// when complete, so `dir` never holds a half-written report, even if the process is killed. With
@@ -95,6 +97,25 @@ pub fn write_report(
         let _ = fs::remove_dir(&fig_dir);
     } else {
         sync_dir(&fig_dir);
+    }
+
+    let with_laws: Vec<(&ClaimResult, &String)> = result
+        .claims
+        .iter()
+        .zip(&stems)
+        .filter(|(c, _)| !c.estimates.laws.is_empty())
+        .collect();
+    if !with_laws.is_empty() {
+        let law_dir = root.join(LAWS);
+        fs::create_dir(&law_dir).map_err(|e| ReportError::io("create folder", &law_dir, e))?;
+        for (claim, stem) in with_laws {
+            let path = law_dir.join(format!("{stem}.csv"));
+            write_synced(
+                &path,
+                crate::law_table::csv(&claim.estimates.laws).as_bytes(),
+            )?;
+        }
+        sync_dir(&law_dir);
     }
 
     let summary = crate::summary::render(result, extras, &stems, &figures, picture.as_ref());

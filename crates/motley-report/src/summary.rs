@@ -346,7 +346,7 @@ fn claim_section(
         );
     }
 
-    estimates(s, claim);
+    estimates(s, claim, stem);
 
     if !figures.is_empty() {
         let _ = writeln!(s, "### Figures\n");
@@ -358,7 +358,7 @@ fn claim_section(
 }
 
 /// Tables of probabilities, top outcomes and moments.
-fn estimates(s: &mut String, claim: &ClaimResult) {
+fn estimates(s: &mut String, claim: &ClaimResult, stem: &str) {
     let est = &claim.estimates;
     if !est.series.is_empty() {
         series_table(s, claim);
@@ -438,6 +438,30 @@ fn estimates(s: &mut String, claim: &ClaimResult) {
             s.push('\n');
         }
         s.push('\n');
+    }
+    if !est.laws.is_empty() {
+        let sizes: Vec<String> = est
+            .laws
+            .iter()
+            .map(|l| {
+                if l.truncated {
+                    format!(
+                        "{}: {} outcomes, cut at the first {} in value order",
+                        code(&l.observable),
+                        l.distinct,
+                        l.rows.len()
+                    )
+                } else {
+                    format!("{}: {} outcomes", code(&l.observable), l.distinct)
+                }
+            })
+            .collect();
+        let _ = writeln!(
+            s,
+            "Every outcome: [`laws/{stem}.csv`](laws/{stem}.csv) ({}).\n",
+            sizes.join("; "),
+            stem = stem
+        );
     }
     if !est.moments.is_empty() {
         let _ = writeln!(s, "### Moments\n");

@@ -13,7 +13,7 @@ use std::collections::BTreeMap;
 use motley_colorblind::Summary;
 use serde::{Deserialize, Serialize};
 
-use crate::family::Value;
+use crate::family::{Real, Value};
 use crate::scenario::ValueKind;
 
 /// Largest universe whose joint set law is kept.
@@ -38,6 +38,18 @@ pub enum Accumulator {
     Sequence(SequenceCounts),
     /// Pairs of numbers read from one sample (a `joint` claim).
     Pairs(PairValues),
+    /// Tuples of numbers.
+    Tuple(TupleCounts),
+}
+
+/// Counts of a tuple observable.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct TupleCounts {
+    /// Samples.
+    pub n: u64,
+    /// Law by tuple.
+    #[serde(with = "pairs")]
+    pub counts: BTreeMap<Vec<Real>, u64>,
 }
 
 /// Pairs of numbers, one per sample, in arrival order until sorted (lexicographically).
@@ -187,6 +199,10 @@ impl Accumulator {
                 n: 0,
                 counts: BTreeMap::new(),
             }),
+            ValueKind::Tuple { .. } => Accumulator::Tuple(TupleCounts {
+                n: 0,
+                counts: BTreeMap::new(),
+            }),
         }
     }
 
@@ -224,6 +240,14 @@ impl Accumulator {
             Value::Number(x) => self.add_scalar(x),
             Value::Event(b) => self.add_event(b),
             Value::Sequence(q) => self.add_sequence(q),
+            Value::Tuple(t) => {
+                if let Accumulator::Tuple(c) = self {
+                    c.n += 1;
+                    *c.counts
+                        .entry(t.iter().map(|&x| Real(x)).collect())
+                        .or_insert(0) += 1;
+                }
+            }
         }
     }
 
@@ -282,6 +306,10 @@ impl Accumulator {
                 add_counts(&mut a.counts, &b.counts);
             }
             (Accumulator::Pairs(a), Accumulator::Pairs(b)) => a.values.extend_from_slice(&b.values),
+            (Accumulator::Tuple(a), Accumulator::Tuple(b)) => {
+                a.n += b.n;
+                add_counts(&mut a.counts, &b.counts);
+            }
             _ => {}
         }
     }
@@ -305,6 +333,7 @@ impl Accumulator {
             Accumulator::Event(e) => e.n,
             Accumulator::Sequence(s) => s.n,
             Accumulator::Pairs(p) => p.values.len() as u64,
+            Accumulator::Tuple(t) => t.n,
         }
     }
 }

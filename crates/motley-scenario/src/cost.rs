@@ -45,6 +45,7 @@ pub fn estimate(s: &Scenario, plan: &Plan, threads: usize) -> Cost {
             }
             ValueKind::Event => 16.0,
             ValueKind::Sequence { len } => (24.0 + 4.0 * len as f64 + 32.0) * (s.samples as f64),
+            ValueKind::Tuple { len } => (24.0 + 8.0 * len as f64 + 32.0) * (s.samples as f64),
         };
     }
     let threads = threads.max(1);

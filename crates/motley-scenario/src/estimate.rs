@@ -10,7 +10,7 @@ use std::collections::BTreeMap;
 use motley_stats::{clopper_pearson_interval, wilson_interval};
 
 use crate::family::ValueKey;
-use crate::result::{Interval, Moments, Outcome, Series};
+use crate::result::{FullLaw, Interval, LawRow, Moments, Outcome, Series, LAW_ROW_CAP};
 
 /// Most points kept on an empirical CDF curve.
 pub const ECDF_POINTS: usize = 400;
@@ -149,6 +149,61 @@ pub fn show_value(k: &ValueKey) -> String {
         ValueKey::Sequence(q) => show_sequence(q),
         ValueKey::Event(b) => (if *b { "yes" } else { "no" }).into(),
         ValueKey::Number(x) => format!("{}", x.0),
+        ValueKey::Tuple(t) => {
+            let inner: Vec<String> = t.iter().map(|x| format!("{}", x.0)).collect();
+            format!("({})", inner.join(", "))
+        }
+    }
+}
+
+/// The full observed law of one observable from its counts by value (in value order).
+pub fn full_law_observed(label: &str, counts: &[(&ValueKey, u64)]) -> FullLaw {
+    let n: u64 = counts.iter().map(|(_, c)| c).sum();
+    FullLaw {
+        observable: label.to_string(),
+        samples: n,
+        distinct: counts.len(),
+        truncated: counts.len() > LAW_ROW_CAP,
+        rows: counts
+            .iter()
+            .take(LAW_ROW_CAP)
+            .map(|(k, c)| LawRow {
+                value: show_value(k),
+                count: Some(*c),
+                probability: *c as f64 / n.max(1) as f64,
+                fraction: None,
+            })
+            .collect(),
+    }
+}
+
+/// The full exact law of one observable (cells in value order), with fractions when `rational`
+/// holds the same law in rationals.
+pub fn full_law_exact(
+    label: &str,
+    cells: &[(ValueKey, f64)],
+    rational: Option<&[(ValueKey, num_rational::BigRational)]>,
+) -> FullLaw {
+    let fraction = |k: &ValueKey| {
+        let r = rational?;
+        let i = r.binary_search_by(|(x, _)| x.cmp(k)).ok()?;
+        Some(r[i].1.to_string())
+    };
+    FullLaw {
+        observable: label.to_string(),
+        samples: 0,
+        distinct: cells.len(),
+        truncated: cells.len() > LAW_ROW_CAP,
+        rows: cells
+            .iter()
+            .take(LAW_ROW_CAP)
+            .map(|(k, p)| LawRow {
+                value: show_value(k),
+                count: None,
+                probability: *p,
+                fraction: fraction(k),
+            })
+            .collect(),
     }
 }
 

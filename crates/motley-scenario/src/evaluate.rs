@@ -457,6 +457,11 @@ fn value_counts(acc: &Accumulator) -> Option<CategoricalCounts<ValueKey>> {
                 c.add_count(ValueKey::Sequence(k.clone()), *n);
             }
         }
+        Accumulator::Tuple(t) => {
+            for (k, n) in &t.counts {
+                c.add_count(ValueKey::Tuple(k.clone()), *n);
+            }
+        }
         Accumulator::Pairs(_) => return None,
     }
     Some(c)
@@ -467,7 +472,6 @@ fn value_counts(acc: &Accumulator) -> Option<CategoricalCounts<ValueKey>> {
 /// the table as the effect (McDiarmid bound, as for two samples).
 fn law_of_table(
     s: &Scenario,
-    label: &str,
     acc: &Accumulator,
     t: &TableLaw,
     fam: &mut Family,
@@ -494,7 +498,7 @@ fn law_of_table(
         .ok()
         .flatten()
         .map_or(1.0, |d| d / std::f64::consts::SQRT_2);
-    est.top_outcomes.push(top_values(&observed, n, label));
+    est.top_outcomes.push(top_values(&observed, n));
     Some(Effect {
         measure: "total variation to the table".into(),
         estimate: tv.estimate,
@@ -504,7 +508,7 @@ fn law_of_table(
 }
 
 /// The likeliest outcomes of observed counts, for the report.
-fn top_values(c: &CategoricalCounts<ValueKey>, n: u64, _label: &str) -> Vec<Outcome> {
+fn top_values(c: &CategoricalCounts<ValueKey>, n: u64) -> Vec<Outcome> {
     let mut m = BTreeMap::new();
     for (k, v) in c.sorted_cells() {
         m.insert(k.clone(), v);
@@ -644,20 +648,14 @@ pub fn evaluate(
                     .unwrap_or(1.0),
                 });
             }
-            (Accumulator::Sequence(a), Accumulator::Sequence(b)) => {
-                let to = |m: &BTreeMap<Vec<u32>, u64>| {
-                    let mut c = CategoricalCounts::new();
-                    for (k, v) in m {
-                        c.add_count(k.clone(), *v);
-                    }
-                    c
-                };
-                let (ca, cb) = (to(&a.counts), to(&b.counts));
-                effect = same_law_categorical(s, (&ca, a.n), (&cb, b.n), &mut fam);
-                est.top_outcomes
-                    .push(top_outcomes(&a.counts, a.n, 20, |k| show_sequence(k)));
-                est.top_outcomes
-                    .push(top_outcomes(&b.counts, b.n, 20, |k| show_sequence(k)));
+            (a @ Accumulator::Sequence(_), b @ Accumulator::Sequence(_))
+            | (a @ Accumulator::Tuple(_), b @ Accumulator::Tuple(_)) => {
+                if let (Some(ca), Some(cb)) = (value_counts(a), value_counts(b)) {
+                    let (na, nb) = (ca.total(), cb.total());
+                    effect = same_law_categorical(s, (&ca, na), (&cb, nb), &mut fam);
+                    est.top_outcomes.push(top_values(&ca, na));
+                    est.top_outcomes.push(top_values(&cb, nb));
+                }
             }
             _ => {}
         },
@@ -675,7 +673,7 @@ pub fn evaluate(
             }
         }
         ClaimKind::LawOf(_, ReferenceSpec::Table(t)) => {
-            effect = law_of_table(s, labels[0], accs(slots, &sl[0]), t, &mut fam, &mut est);
+            effect = law_of_table(s, accs(slots, &sl[0]), t, &mut fam, &mut est);
         }
         ClaimKind::Mean(_, equals) => {
             if let Accumulator::Scalar(x) = accs(slots, &sl[0]) {
@@ -740,9 +738,10 @@ pub fn evaluate(
                         .push(top_outcomes(j, a.n, 20, |m| show_set(&mask_elements(m))));
                 }
             }
-            Accumulator::Sequence(q) => {
-                est.top_outcomes
-                    .push(top_outcomes(&q.counts, q.n, 20, |k| show_sequence(k)))
+            acc @ (Accumulator::Sequence(_) | Accumulator::Tuple(_)) => {
+                if let Some(c) = value_counts(acc) {
+                    est.top_outcomes.push(top_values(&c, c.total()));
+                }
             }
             Accumulator::Pairs(_) => {}
         },
@@ -754,6 +753,15 @@ pub fn evaluate(
             if let Accumulator::Pairs(p) = accs(slots, &sl[2]) {
                 crate::evaluate_series::joint(s, labels, p, *reference, &mut est);
             }
+        }
+    }
+    for x in sl.iter().filter(|x| x.partner.is_none()) {
+        let o = &s.observables[x.observable];
+        if !o.kind.has_full_law() {
+            continue;
+        }
+        if let Some(c) = value_counts(accs(slots, x)) {
+            est.laws.push(full_law_observed(&o.name, &c.sorted_cells()));
         }
     }
     let rejected = fam.close(s.alpha);

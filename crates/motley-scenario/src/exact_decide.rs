@@ -8,11 +8,11 @@
 
 use std::collections::BTreeMap;
 
-use crate::estimate::show_value;
-use crate::family::{ObservableLaw, RationalLaw, ValueKey};
+use crate::estimate::{full_law_exact, show_value};
+use crate::family::{ObservableLaw, ValueKey};
 use crate::result::{
-    ClaimKindName, ClaimResult, DecidedBy, Discrepancy, Estimates, ExactResult, Interval, Moments,
-    Outcome, Stated, StatedRole,
+    ClaimKindName, ClaimResult, DecidedBy, Discrepancy, Estimates, ExactResult, FullLaw, Interval,
+    Moments, Outcome, Stated, StatedRole,
 };
 use crate::scenario::*;
 
@@ -30,17 +30,22 @@ fn tv(a: &[(ValueKey, f64)], b: &[(ValueKey, f64)]) -> f64 {
     0.5 * m.values().map(|v| v.abs()).sum::<f64>()
 }
 
-/// Rational law of an observable, when its family computes one.
-fn rational_law(s: &Scenario, o: usize) -> Option<RationalLaw> {
-    let obs = &s.observables[o];
-    let m = &s.models[obs.model];
-    m.kind.family().rational_law(m, obs)
-}
+use crate::family::{exact_law as observable_law, rational_law};
 
-fn observable_law(s: &Scenario, o: usize) -> Result<ObservableLaw, String> {
-    let obs = &s.observables[o];
-    let m = &s.models[obs.model];
-    m.kind.family().exact_law(m, obs)
+/// The full exact laws of the claim's observables whose values have one (see
+/// `ValueKind::has_full_law`), with fractions where the family computes in rationals.
+fn full_laws(s: &Scenario, laws: &[(usize, &ObservableLaw)]) -> Vec<FullLaw> {
+    laws.iter()
+        .filter(|(o, _)| s.observables[*o].kind.has_full_law())
+        .map(|(o, l)| {
+            let rational = rational_law(s, *o);
+            full_law_exact(
+                &s.observables[*o].name,
+                &l.cells,
+                rational.as_ref().map(|r| r.entries()),
+            )
+        })
+        .collect()
 }
 
 fn top(cells: &[(ValueKey, f64)]) -> Vec<Outcome> {
@@ -60,7 +65,9 @@ fn scalar_cells(cells: &[(ValueKey, f64)]) -> Vec<(f64, f64)> {
         .iter()
         .filter_map(|(k, p)| match k {
             ValueKey::Number(x) => Some((x.0, *p)),
-            ValueKey::Set(_) | ValueKey::Event(_) | ValueKey::Sequence(_) => None,
+            ValueKey::Set(_) | ValueKey::Event(_) | ValueKey::Sequence(_) | ValueKey::Tuple(_) => {
+                None
+            }
         })
         .collect()
 }
@@ -108,6 +115,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             let d = rational.unwrap_or_else(|| tv(&la.cells, &lb.cells));
             est.top_outcomes.push(top(&la.cells));
             est.top_outcomes.push(top(&lb.cells));
+            est.laws = full_laws(s, &[(*a, &la), (*b, &lb)]);
             let n = la.cells.len().max(lb.cells.len());
             (
                 ClaimKindName::SameLaw,
@@ -121,6 +129,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }
         ClaimKind::Probability(a, eq) => {
             let l = observable_law(s, *a)?;
+            est.laws = full_laws(s, &[(*a, &l)]);
             let p = exact_event(&l, name(*a), &mut est);
             let d = eq.map(|v| (Discrepancy::ProbabilityGap, (p - v).abs()));
             (
@@ -135,6 +144,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }
         ClaimKind::LawOf(a, ReferenceSpec::TailFromProfile(b)) => {
             let (lx, lp) = (observable_law(s, *a)?, observable_law(s, *b)?);
+            est.laws = full_laws(s, &[(*a, &lx), (*b, &lp)]);
             let pb = &s.observables[*b];
             let from = s.models[pb.model]
                 .kind
@@ -193,6 +203,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             };
             let d = rational.unwrap_or_else(|| tv(&l.cells, &t.cells));
             est.top_outcomes.push(top(&l.cells));
+            est.laws = full_laws(s, &[(*a, &l)]);
             (
                 ClaimKindName::LawOf,
                 vec![name(*a)],
@@ -205,6 +216,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }
         ClaimKind::Mean(a, equals) => {
             let l = observable_law(s, *a)?;
+            est.laws = full_laws(s, &[(*a, &l)]);
             let xs = scalar_cells(&l.cells);
             let mean: f64 = xs.iter().map(|(x, p)| x * p).sum();
             let var: f64 = xs.iter().map(|(x, p)| (x - mean) * (x - mean) * p).sum();
@@ -227,6 +239,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }
         ClaimKind::LawOf(a, r) => {
             let l = observable_law(s, *a)?;
+            est.laws = full_laws(s, &[(*a, &l)]);
             let f = crate::reference_law::reference_cdf(r).ok_or("no reference CDF")?;
             let mut acc = 0.0;
             let mut worst = 0.0f64;
@@ -247,6 +260,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         }
         ClaimKind::Describe(a, _, _) => {
             let l = observable_law(s, *a)?;
+            est.laws = full_laws(s, &[(*a, &l)]);
             let kind = s.observables[*a].kind;
             est.top_outcomes.push(top(&l.cells));
             if matches!(kind, ValueKind::Scalar { .. }) {

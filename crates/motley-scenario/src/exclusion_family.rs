@@ -13,7 +13,7 @@ use crate::checker::MAX_SIDE;
 use crate::error::ScenarioError;
 use crate::exclusion_unit::{build, ExclusionUnit, Process};
 use crate::family::{
-    ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value, ValueBuffers,
+    JointLaw, ModelFamily, RationalJointLaw, ReadContext, UnitSampler, Value, ValueBuffers,
 };
 use crate::raw::{RawRead, RawSetKind};
 use crate::read_set::set_elements;
@@ -53,8 +53,8 @@ pub const EXCLUSION_RATE: f64 = 5e7;
 pub(crate) fn read_of(o: &ObservableSpec) -> &ExclusionRead {
     match &o.read {
         ReadSpec::Exclusion(r) => r,
-        ReadSpec::SixVertex(_) => panic!(
-            "observable `{}` of an exclusion model reads a six-vertex read-out",
+        ReadSpec::SixVertex(_) | ReadSpec::Combined(_) => panic!(
+            "observable `{}` is no exclusion read-out (a family reads only its own)",
             o.name
         ),
     }
@@ -128,7 +128,10 @@ pub(crate) fn read<'s>(
         ExclusionRead::Window(_, _, _, how) => {
             let universe = match o.kind {
                 ValueKind::Set { universe } => universe,
-                ValueKind::Scalar { .. } | ValueKind::Event | ValueKind::Sequence { .. } => 0,
+                ValueKind::Scalar { .. }
+                | ValueKind::Event
+                | ValueKind::Sequence { .. }
+                | ValueKind::Tuple { .. } => 0,
             };
             let s = &mut scratch.set;
             set_elements(colors(), how, o.threshold, o.map, universe, model, s);
@@ -385,7 +388,7 @@ impl ModelFamily for ExclusionSpec {
                 | ExclusionRead::Swapped(..)
                 | ExclusionRead::Attempted(..) => false,
             },
-            ReadSpec::SixVertex(_) => false,
+            ReadSpec::SixVertex(_) | ReadSpec::Combined(_) => false,
         }
     }
 
@@ -430,39 +433,59 @@ impl ModelFamily for ExclusionSpec {
         }
     }
 
-    fn exact_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Result<ObservableLaw, String> {
+    fn joint_obstacle(&self, _: &ModelSpec, parts: &[&ObservableSpec]) -> Option<String> {
+        let t = parts.first().map(|o| time_index(read_of(o)))?;
+        parts.iter().any(|o| time_index(read_of(o)) != t).then(|| {
+            "its observables read different times; exact joint laws are computed at one time"
+                .to_string()
+        })
+    }
+
+    fn exact_joint_law(
+        &self,
+        model: &ModelSpec,
+        observables: &[&ObservableSpec],
+    ) -> Result<JointLaw, String> {
         let Process::Finite(p) = build(self)? else {
             return Err("exact laws need a segment or a ring".into());
         };
         let solver = motley_exclusion::ExactSolver::new(&p).map_err(|x| x.to_string())?;
-        let law = solver
-            .law_at(
-                self.times[time_index(read_of(o))],
-                motley_exclusion::DEFAULT_TAIL,
-            )
-            .map_err(|x| x.to_string())?;
         let initial = match &self.initial {
             InitialSpec::Sites(c) => c.clone(),
             InitialSpec::Line { .. } => Vec::new(),
         };
-        let wanted = readouts(o, self.sites());
-        let mut scratch = ValueBuffers::default();
-        let mut cells = Vec::with_capacity(law.entries().len());
-        for (arrangement, p) in law.entries() {
-            let readings = wanted
-                .iter()
-                .map(|r| reading_of_arrangement(r, &initial, arrangement))
-                .collect::<Option<Vec<Reading>>>()
-                .ok_or_else(|| format!("observable `{}` has no exact law", o.name))?;
-            cells.push((read(model, o, &readings, 0, &mut scratch).key(), *p));
+        // One solve per read-out time; the joint law needs all observables at one time.
+        let t = observables
+            .first()
+            .map(|o| time_index(read_of(o)))
+            .unwrap_or(0);
+        if observables.iter().any(|o| time_index(read_of(o)) != t) {
+            return Err("an exact joint law reads all its observables at one time".into());
         }
-        Ok(ObservableLaw::collect(
-            cells,
-            law.error_bound() + 1e-14 * (1 + law.entries().len()) as f64,
-        ))
+        let law = solver
+            .law_at(self.times[t], motley_exclusion::DEFAULT_TAIL)
+            .map_err(|x| x.to_string())?;
+        let mut scratch = ValueBuffers::default();
+        let mut cells = std::collections::BTreeMap::new();
+        for (arrangement, p) in law.entries() {
+            let mut key = Vec::with_capacity(observables.len());
+            for o in observables {
+                let readings = readouts(o, self.sites())
+                    .iter()
+                    .map(|r| reading_of_arrangement(r, &initial, arrangement))
+                    .collect::<Option<Vec<Reading>>>()
+                    .ok_or_else(|| format!("observable `{}` has no exact law", o.name))?;
+                key.push(read(model, o, &readings, 0, &mut scratch).key());
+            }
+            *cells.entry(key).or_insert(0.0) += *p;
+        }
+        Ok(JointLaw {
+            cells: cells.into_iter().collect(),
+            error: law.error_bound() + 1e-14 * (1 + law.entries().len()) as f64,
+        })
     }
 
-    fn rational_law(&self, _: &ModelSpec, _: &ObservableSpec) -> Option<RationalLaw> {
+    fn rational_joint_law(&self, _: &ModelSpec, _: &[&ObservableSpec]) -> Option<RationalJointLaw> {
         None
     }
 
@@ -489,7 +512,7 @@ impl ModelFamily for ExclusionSpec {
             ReadSpec::Exclusion(ExclusionRead::Window(from, _, _, SetRead::Positions)) => {
                 Some(*from)
             }
-            ReadSpec::Exclusion(_) | ReadSpec::SixVertex(_) => None,
+            ReadSpec::Exclusion(_) | ReadSpec::SixVertex(_) | ReadSpec::Combined(_) => None,
         }
     }
 

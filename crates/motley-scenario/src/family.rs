@@ -31,7 +31,9 @@ use motley_colorblind::Color;
 use crate::checker::Checker;
 use crate::error::ScenarioError;
 use crate::raw::RawRead;
-use crate::scenario::{ModelKind, ModelSpec, ObservableSpec, Profile, ReadSpec, ValueKind};
+use crate::scenario::{
+    ModelKind, ModelSpec, ObservableSpec, Profile, ReadSpec, Scenario, ValueKind,
+};
 
 /// One observable's value in one sample, borrowed from the reader's buffers.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -44,6 +46,8 @@ pub enum Value<'a> {
     Event(bool),
     /// A sequence of classes or sites.
     Sequence(&'a [u32]),
+    /// Several numbers read from one sample.
+    Tuple(&'a [f64]),
 }
 
 impl Value<'_> {
@@ -54,6 +58,7 @@ impl Value<'_> {
             Value::Number(x) => ValueKey::Number(Real(x)),
             Value::Event(b) => ValueKey::Event(b),
             Value::Sequence(s) => ValueKey::Sequence(s.to_vec()),
+            Value::Tuple(t) => ValueKey::Tuple(t.iter().map(|&x| Real(x)).collect()),
         }
     }
 }
@@ -69,7 +74,8 @@ pub struct ValueBuffers {
 }
 
 /// A number ordered by [`f64::total_cmp`], so that values can key a law.
-#[derive(Debug, Clone, Copy)]
+#[derive(Debug, Clone, Copy, serde::Serialize, serde::Deserialize)]
+#[serde(transparent)]
 pub struct Real(pub f64);
 
 impl PartialEq for Real {
@@ -106,6 +112,8 @@ pub enum ValueKey {
     Event(bool),
     /// A sequence.
     Sequence(Vec<u32>),
+    /// Several numbers.
+    Tuple(Vec<Real>),
 }
 
 /// The exact law of one observable: outcomes with probabilities, sorted by outcome, and a bound on
@@ -134,6 +142,18 @@ impl ObservableLaw {
 
 /// An exact law in rationals (only families whose parameters were all written as fractions).
 pub type RationalLaw = motley_sixvertex::ExactLaw<ValueKey, num_rational::BigRational>;
+
+/// The exact joint law of several observables: outcomes are lists of values, sorted, each once.
+#[derive(Debug, Clone, PartialEq)]
+pub struct JointLaw {
+    /// `(values, probability)`.
+    pub cells: Vec<(Vec<ValueKey>, f64)>,
+    /// Bound on the total absolute error of the probabilities.
+    pub error: f64,
+}
+
+/// A joint exact law in rationals.
+pub type RationalJointLaw = motley_sixvertex::ExactLaw<Vec<ValueKey>, num_rational::BigRational>;
 
 /// A sampler of one unit: draws sample `index` under `seed` and reads each of the unit's
 /// observables (in the order they were given) into `out`.
@@ -244,15 +264,27 @@ pub trait ModelFamily {
     /// Why observable `o` has no exact law here (`None`: it has one).
     fn exact_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String>;
 
-    /// The exact law of observable `o` in floating point.
+    /// Why the observables `parts` (each with an exact law) have no exact joint law here.
+    fn joint_obstacle(&self, model: &ModelSpec, parts: &[&ObservableSpec]) -> Option<String>;
+
+    /// The exact joint law of the values of `observables` (all of model `model`, all read-outs of
+    /// this family) in floating point: each outcome is the list of their values.
     ///
     /// # Errors
     /// A message when the engine cannot compute it (size limits).
-    fn exact_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Result<ObservableLaw, String>;
+    fn exact_joint_law(
+        &self,
+        model: &ModelSpec,
+        observables: &[&ObservableSpec],
+    ) -> Result<JointLaw, String>;
 
-    /// The exact law of observable `o` in rationals, when every parameter is a fraction and the
-    /// family computes in rationals.
-    fn rational_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<RationalLaw>;
+    /// The same joint law in rationals, when every parameter is a fraction and the family computes
+    /// in rationals.
+    fn rational_joint_law(
+        &self,
+        model: &ModelSpec,
+        observables: &[&ObservableSpec],
+    ) -> Option<RationalJointLaw>;
 
     /// Seconds of one core per sample, and the bytes of state one sampler keeps.
     fn cost_per_sample(&self) -> (f64, f64);
@@ -273,6 +305,86 @@ pub trait ModelFamily {
         model: &ModelSpec,
         o: &ObservableSpec,
     ) -> Result<Option<f64>, String>;
+}
+
+/// The number a component value of a combination stands for (components are numbers; validation
+/// refuses anything else).
+fn number_of(v: &ValueKey) -> f64 {
+    match v {
+        ValueKey::Number(x) => x.0,
+        ValueKey::Event(b) => f64::from(u8::from(*b)),
+        ValueKey::Set(_) | ValueKey::Sequence(_) | ValueKey::Tuple(_) => f64::NAN,
+    }
+}
+
+/// The observables the family reads for observable `o`: itself, or a combination's components.
+pub fn read_by_family(s: &Scenario, o: usize) -> Vec<usize> {
+    match &s.observables[o].read {
+        ReadSpec::Combined(c) => c.components(),
+        ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_) => vec![o],
+    }
+}
+
+/// Why observable `o` of `s` has no exact law here (`None`: it has one); a combination has one
+/// when all its components have.
+pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
+    let m = &s.models[s.observables[o].model];
+    let family = m.kind.family();
+    let parts: Vec<&ObservableSpec> = read_by_family(s, o)
+        .into_iter()
+        .map(|c| &s.observables[c])
+        .collect();
+    parts
+        .iter()
+        .find_map(|obs| family.exact_obstacle(m, obs))
+        .or_else(|| family.joint_obstacle(m, &parts))
+}
+
+/// The exact law of observable `o` of `s` in floating point: a read-out's, or a combination's from
+/// the joint law of its components, through the same [`Combination::value`] as Monte Carlo.
+///
+/// # Errors
+/// The family's message when the engine cannot compute it.
+pub fn exact_law(s: &Scenario, o: usize) -> Result<ObservableLaw, String> {
+    let obs = &s.observables[o];
+    let m = &s.models[obs.model];
+    let parts: Vec<&ObservableSpec> = read_by_family(s, o)
+        .into_iter()
+        .map(|c| &s.observables[c])
+        .collect();
+    let joint = m.kind.family().exact_joint_law(m, &parts)?;
+    let mut buf = Vec::new();
+    Ok(ObservableLaw::collect(
+        joint
+            .cells
+            .into_iter()
+            .map(|(v, p)| (combined_key(obs, v, &mut buf), p)),
+        joint.error,
+    ))
+}
+
+/// The exact law of observable `o` of `s` in rationals, when its family computes one.
+pub fn rational_law(s: &Scenario, o: usize) -> Option<RationalLaw> {
+    let obs = &s.observables[o];
+    let m = &s.models[obs.model];
+    let parts: Vec<&ObservableSpec> = read_by_family(s, o)
+        .into_iter()
+        .map(|c| &s.observables[c])
+        .collect();
+    let joint = m.kind.family().rational_joint_law(m, &parts)?;
+    let mut buf = Vec::new();
+    Some(joint.map(|v| combined_key(obs, v.clone(), &mut buf)))
+}
+
+/// The value of observable `obs` from the values `v` of what its family read for it.
+fn combined_key(obs: &ObservableSpec, mut v: Vec<ValueKey>, buf: &mut Vec<f64>) -> ValueKey {
+    match &obs.read {
+        ReadSpec::Combined(c) => {
+            let x: Vec<f64> = v.iter().map(number_of).collect();
+            c.value(&x, |y| obs.number(y), buf).key()
+        }
+        ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_) => v.swap_remove(0),
+    }
 }
 
 impl ModelKind {

@@ -37,6 +37,7 @@
 
 pub mod accumulate;
 mod checker;
+pub mod combination;
 pub mod cost;
 pub mod error;
 pub mod estimate;

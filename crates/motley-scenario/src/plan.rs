@@ -20,9 +20,7 @@ pub struct Plan {
 
 /// Why observable `o` has no exact law here, if it has none.
 pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
-    let obs = &s.observables[o];
-    let m = &s.models[obs.model];
-    m.kind.family().exact_obstacle(m, obs)
+    crate::family::exact_obstacle(s, o)
 }
 
 fn claim_observables(kind: &ClaimKind) -> Vec<usize> {

@@ -216,8 +216,12 @@ pub struct RawLineStep {
 pub struct RawObservable {
     /// The model it reads.
     pub of: String,
-    /// What it reads.
-    pub read: RawRead,
+    /// What it reads (or `combine`).
+    #[serde(default)]
+    pub read: Option<RawRead>,
+    /// Numbers of other observables of the same model, combined per sample (or `read`).
+    #[serde(default)]
+    pub combine: Option<RawCombine>,
     /// Threshold projection before reading positions: colors ≥ this become paths.
     #[serde(default)]
     pub threshold: Option<i64>,
@@ -234,6 +238,58 @@ pub struct RawObservable {
     /// `base^((value + shift) × scale)`, e.g. `q^H` for a q-moment.
     #[serde(default)]
     pub base: Option<RawNumber>,
+}
+
+/// `combine:` values: observables of one model combined sample by sample.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub enum RawCombine {
+    /// The numbers of several observables together (a joint value).
+    Tuple(Vec<String>),
+    /// The first number minus the second.
+    Difference([String; 2]),
+    /// The sum of two numbers.
+    Sum([String; 2]),
+    /// An event: a number compared with a constant or with another number.
+    Compare(RawCompare),
+}
+
+/// `compare:` keys.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(deny_unknown_fields, rename_all = "kebab-case")]
+pub struct RawCompare {
+    /// The number on the left.
+    pub left: String,
+    /// The relation.
+    pub relation: RawRelation,
+    /// A number or the name of another number observable.
+    pub right: RawOperand,
+}
+
+/// Relations of `compare`.
+#[derive(Debug, Clone, Copy, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RawRelation {
+    /// `>`.
+    GreaterThan,
+    /// `<`.
+    LessThan,
+    /// `≥`.
+    AtLeast,
+    /// `≤`.
+    AtMost,
+    /// `=`.
+    EqualTo,
+}
+
+/// The right side of `compare`.
+#[derive(Debug, Clone, Deserialize, Serialize)]
+#[serde(untagged)]
+pub enum RawOperand {
+    /// A constant.
+    Number(f64),
+    /// Another observable.
+    Observable(String),
 }
 
 /// `map:` values.

@@ -13,7 +13,10 @@ pub fn reference_cdf(r: &ReferenceSpec) -> Option<Box<dyn Fn(f64) -> f64>> {
                 .iter()
                 .map(|(k, p)| match k {
                     ValueKey::Number(x) => Some((x.0, *p)),
-                    ValueKey::Set(_) | ValueKey::Event(_) | ValueKey::Sequence(_) => None,
+                    ValueKey::Set(_)
+                    | ValueKey::Event(_)
+                    | ValueKey::Sequence(_)
+                    | ValueKey::Tuple(_) => None,
                 })
                 .collect::<Option<_>>()?;
             Some(Box::new(move |x| {

@@ -4,19 +4,21 @@
 use motley_colorblind::IndexMap as SetMap;
 
 use crate::checker::{Checker, MAX_SIDE};
+use crate::combination::{Combination, Operand, Relation};
 use crate::error::ScenarioError;
 use crate::family::ReadContext;
 use crate::raw::*;
 use crate::scenario::*;
 
-/// Resolves observable `name` (at `path`) of model `m` (index `mi`).
+/// Resolves observable `name` (at `path`) of model `m` (index `mi`); `earlier` are the
+/// observables defined before it, which a combination may use.
 pub(crate) fn observable(
     ck: &Checker,
     path: &str,
     name: &str,
-    mi: usize,
-    m: &ModelSpec,
+    (mi, m): (usize, &ModelSpec),
     o: &RawObservable,
+    earlier: &[ObservableSpec],
 ) -> Result<ObservableSpec, ScenarioError> {
     let rp = format!("{path}.read");
     let family = m.kind.family();
@@ -25,7 +27,16 @@ pub(crate) fn observable(
         path: &rp,
         model: m,
     };
-    let (read, kind) = family.resolve_read(&cx, &o.read)?;
+    let (read, kind) = match (&o.read, &o.combine) {
+        (Some(r), None) => family.resolve_read(&cx, r)?,
+        (None, Some(c)) => combine(ck, &format!("{path}.combine"), c, mi, earlier)?,
+        (Some(_), Some(_)) | (None, None) => {
+            return Err(ck.error(
+                path,
+                "an observable needs exactly one of `read` (a read-out of its model) and `combine` (numbers of other observables of the same model)",
+            ))
+        }
+    };
 
     // Modifiers.
     let takes_threshold = family.takes_threshold(&read);
@@ -155,5 +166,118 @@ pub(crate) fn observable(
         shift,
         base,
         kind,
+    })
+}
+
+/// Most components of a tuple.
+pub const MAX_TUPLE: usize = 16;
+
+/// Resolves a combination (at `path`) of observables defined before it on model `mi`.
+fn combine(
+    ck: &Checker,
+    path: &str,
+    c: &RawCombine,
+    mi: usize,
+    earlier: &[ObservableSpec],
+) -> Result<(ReadSpec, ValueKind), ScenarioError> {
+    // A component: a number read by the same model, defined earlier in the file.
+    let number = |p: &str, n: &str| -> Result<(usize, bool), ScenarioError> {
+        let Some(i) = earlier.iter().position(|x| x.name == n) else {
+            let known: Vec<&str> = earlier.iter().map(|x| x.name.as_str()).collect();
+            return Err(ck.error(
+                p,
+                format!(
+                    "no observable named \"{n}\" is defined before this one (known: {})",
+                    if known.is_empty() {
+                        "none".to_string()
+                    } else {
+                        known.join(", ")
+                    }
+                ),
+            ));
+        };
+        let x = &earlier[i];
+        if x.model != mi {
+            return Err(ck.error(
+                p,
+                format!(
+                    "\"{n}\" reads another model; a combination reads one model, sample by sample"
+                ),
+            ));
+        }
+        let integer = match (&x.read, x.kind) {
+            (ReadSpec::Combined(_), _) => {
+                return Err(ck.error(p, format!("\"{n}\" is itself combined; combine read-outs")))
+            }
+            (ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_), ValueKind::Scalar { integer }) => {
+                integer
+            }
+            (ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_), k) => {
+                return Err(ck.error(
+                    p,
+                    format!("\"{n}\" is {}; a combination takes numbers", k.describe()),
+                ))
+            }
+        };
+        Ok((i, integer))
+    };
+    Ok(match c {
+        RawCombine::Tuple(names) => {
+            if names.len() < 2 || names.len() > MAX_TUPLE {
+                return Err(ck.error(
+                    &format!("{path}.tuple"),
+                    format!("a tuple has 2 to {MAX_TUPLE} numbers, got {}", names.len()),
+                ));
+            }
+            let mut idx = Vec::with_capacity(names.len());
+            for (k, n) in names.iter().enumerate() {
+                idx.push(number(&format!("{path}.tuple[{k}]"), n)?.0);
+            }
+            let len = idx.len();
+            (
+                ReadSpec::Combined(Combination::Tuple(idx)),
+                ValueKind::Tuple { len },
+            )
+        }
+        RawCombine::Difference([a, b]) | RawCombine::Sum([a, b]) => {
+            let key = if matches!(c, RawCombine::Sum(_)) {
+                "sum"
+            } else {
+                "difference"
+            };
+            let (ia, za) = number(&format!("{path}.{key}[0]"), a)?;
+            let (ib, zb) = number(&format!("{path}.{key}[1]"), b)?;
+            let comb = if matches!(c, RawCombine::Sum(_)) {
+                Combination::Sum(ia, ib)
+            } else {
+                Combination::Difference(ia, ib)
+            };
+            (
+                ReadSpec::Combined(comb),
+                ValueKind::Scalar { integer: za && zb },
+            )
+        }
+        RawCombine::Compare(cmp) => {
+            let (ia, _) = number(&format!("{path}.compare.left"), &cmp.left)?;
+            let right = match &cmp.right {
+                RawOperand::Number(v) => {
+                    Operand::Number(ck.finite(&format!("{path}.compare.right"), *v)?)
+                }
+                RawOperand::Observable(n) => {
+                    Operand::Observable(number(&format!("{path}.compare.right"), n)?.0)
+                }
+            };
+            let relation = match cmp.relation {
+                RawRelation::GreaterThan => Relation::GreaterThan,
+                RawRelation::LessThan => Relation::LessThan,
+                RawRelation::AtLeast => Relation::AtLeast,
+                RawRelation::AtMost => Relation::AtMost,
+                RawRelation::EqualTo => Relation::EqualTo,
+            };
+            (
+                ReadSpec::Combined(Combination::Compare(ia, relation, right)),
+                ValueKind::Event,
+            )
+        }
     })
 }

@@ -284,6 +284,41 @@ pub struct Estimates {
     /// `joint` claims: the binned joint law, beside its reference when one is named.
     #[serde(default, skip_serializing_if = "Option::is_none")]
     pub joint: Option<JointLaw>,
+    /// The full law of each observable of the claim whose values are sets, sequences, events or
+    /// integers (every outcome, up to [`LAW_ROW_CAP`] rows).
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub laws: Vec<FullLaw>,
+}
+
+/// Most rows kept of one full law; a larger law is cut (the first rows in value order) and says so.
+pub const LAW_ROW_CAP: usize = 10_000;
+
+/// The full law of one observable: observed counts (Monte Carlo) or exact probabilities.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct FullLaw {
+    /// The observable's name.
+    pub observable: String,
+    /// Samples behind the counts (0 for an exact law).
+    pub samples: u64,
+    /// Distinct outcomes of the whole law.
+    pub distinct: usize,
+    /// Whether the rows stop at [`LAW_ROW_CAP`].
+    pub truncated: bool,
+    /// The outcomes in the order of their values.
+    pub rows: Vec<LawRow>,
+}
+
+/// One outcome of a full law.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct LawRow {
+    /// The outcome as reports print it (`{1, 3}`, `(3 1 2)`, `yes`, `4`).
+    pub value: String,
+    /// Samples with this outcome (Monte Carlo).
+    pub count: Option<u64>,
+    /// Observed frequency or exact probability.
+    pub probability: f64,
+    /// The exact probability as a fraction `p/q`, when the law was computed in rationals.
+    pub fraction: Option<String>,
 }
 
 /// One point of a `series` claim.

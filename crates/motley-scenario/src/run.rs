@@ -14,9 +14,10 @@ use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
 
 use crate::accumulate::Accumulator;
-use crate::family::UnitSampler;
+use crate::combination::Combination;
+use crate::family::{read_by_family, UnitSampler, Value};
 use crate::plan::Plan;
-use crate::scenario::Scenario;
+use crate::scenario::{ObservableSpec, ReadSpec, Scenario};
 use crate::unit::{Slot, Unit};
 
 /// Largest number of samples per work chunk: the grain of parallelism, progress and checkpoints.
@@ -114,9 +115,27 @@ pub enum RunError {
     Threads(usize),
 }
 
-fn sampler<'a>(s: &'a Scenario, u: &Unit) -> Result<Box<dyn UnitSampler + 'a>, RunError> {
+/// What the family of a unit reads: the unit's read-outs and the components of its combinations,
+/// each once, in first-use order.
+fn family_reads(s: &Scenario, u: &Unit) -> Vec<usize> {
+    let mut base = Vec::new();
+    for &o in &u.observables {
+        for c in read_by_family(s, o) {
+            if !base.contains(&c) {
+                base.push(c);
+            }
+        }
+    }
+    base
+}
+
+fn sampler<'a>(
+    s: &'a Scenario,
+    u: &Unit,
+    base: &[usize],
+) -> Result<Box<dyn UnitSampler + 'a>, RunError> {
     let m = &s.models[u.model];
-    let obs = u.observables.iter().map(|&o| &s.observables[o]).collect();
+    let obs = base.iter().map(|&o| &s.observables[o]).collect();
     m.kind
         .family()
         .sampler(m, obs)
@@ -127,11 +146,13 @@ fn sampler<'a>(s: &'a Scenario, u: &Unit) -> Result<Box<dyn UnitSampler + 'a>, R
 }
 
 /// Runs sample indices `[from, to)` of every unit of `plan` and returns the accumulators, in the
-/// order of `plan.slots`.
+/// order of `plan.slots`. Combined observables are computed from their components' numbers of the
+/// same sample ([`Combination::value`], as in exact mode).
 fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumulator>, RunError> {
     let mut out: Vec<Accumulator> = plan.slots.iter().map(|sl| sl.accumulator(s)).collect();
     for u in &plan.units {
-        let mut smp = sampler(s, u)?;
+        let base = family_reads(s, u);
+        let mut smp = sampler(s, u, &base)?;
         let positions: Vec<usize> = u
             .observables
             .iter()
@@ -145,8 +166,47 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
             })
             .collect();
         let mut local: Vec<Accumulator> = positions.iter().map(|&p| out[p].clone()).collect();
+        // Where each family read-out's value goes (its place among the unit's observables), and
+        // the combinations with the places of their components among the read-outs.
+        let direct: Vec<Option<usize>> = base
+            .iter()
+            .map(|b| u.observables.iter().position(|o| o == b))
+            .collect();
+        let combined: Vec<(usize, &ObservableSpec, &Combination, Vec<usize>)> = u
+            .observables
+            .iter()
+            .enumerate()
+            .filter_map(|(k, &o)| {
+                let obs = &s.observables[o];
+                match &obs.read {
+                    ReadSpec::Combined(c) => {
+                        let parts = c
+                            .components()
+                            .iter()
+                            .map(|x| base.iter().position(|b| b == x).expect("component read"))
+                            .collect();
+                        Some((k, obs, c, parts))
+                    }
+                    ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_) => None,
+                }
+            })
+            .collect();
+        let mut numbers = vec![0.0f64; base.len()];
+        let (mut x, mut buf) = (Vec::new(), Vec::new());
         for i in from..to {
-            smp.sample(u.seed, i, &mut |k, v| local[k].add(v));
+            smp.sample(u.seed, i, &mut |k, v| {
+                if let Value::Number(y) = v {
+                    numbers[k] = y;
+                }
+                if let Some(p) = direct[k] {
+                    local[p].add(v);
+                }
+            });
+            for (k, obs, c, parts) in &combined {
+                x.clear();
+                x.extend(parts.iter().map(|&j| numbers[j]));
+                local[*k].add(c.value(&x, |y| obs.number(y), &mut buf));
+            }
         }
         for (acc, &p) in local.into_iter().zip(&positions) {
             out[p] = acc;

@@ -203,9 +203,26 @@ pub enum ValueKind {
         /// Length.
         len: usize,
     },
+    /// `len` numbers read from one sample.
+    Tuple {
+        /// Number of components.
+        len: usize,
+    },
 }
 
 impl ValueKind {
+    /// Whether results list the full law of values of this kind (sets, sequences, events and
+    /// integers; real numbers are described by their empirical CDF instead).
+    pub fn has_full_law(&self) -> bool {
+        match self {
+            ValueKind::Set { .. }
+            | ValueKind::Event
+            | ValueKind::Sequence { .. }
+            | ValueKind::Tuple { .. } => true,
+            ValueKind::Scalar { integer } => *integer,
+        }
+    }
+
     /// Short name for messages.
     pub fn describe(&self) -> String {
         match self {
@@ -213,6 +230,7 @@ impl ValueKind {
             ValueKind::Scalar { .. } => "a number".into(),
             ValueKind::Event => "an event".into(),
             ValueKind::Sequence { len } => format!("a sequence of {len} classes"),
+            ValueKind::Tuple { len } => format!("a tuple of {len} numbers"),
         }
     }
 }
@@ -234,7 +252,11 @@ pub enum ReadSpec {
     SixVertex(SixVertexRead),
     /// A read-out of an exclusion process.
     Exclusion(ExclusionRead),
+    /// Numbers of other observables of the same model, combined sample by sample.
+    Combined(Combination),
 }
+
+pub use crate::combination::{Combination, Operand, Relation};
 
 pub use crate::exclusion_family::ExclusionRead;
 pub use crate::six_vertex_family::SixVertexRead;

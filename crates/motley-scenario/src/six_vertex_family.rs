@@ -7,7 +7,8 @@ use motley_sixvertex::{exact_law, ratio, Outcome, Readout};
 
 use crate::error::ScenarioError;
 use crate::family::{
-    ModelFamily, ObservableLaw, RationalLaw, ReadContext, UnitSampler, Value, ValueBuffers,
+    JointLaw, ModelFamily, RationalJointLaw, ReadContext, UnitSampler, Value, ValueBuffers,
+    ValueKey,
 };
 use crate::raw::{RawPermutationRead, RawRead, RawSetKind};
 use crate::read_set::set_elements;
@@ -110,8 +111,8 @@ impl SixVertexView for Outcome {
 pub(crate) fn read_of(o: &ObservableSpec) -> &SixVertexRead {
     match &o.read {
         ReadSpec::SixVertex(r) => r,
-        ReadSpec::Exclusion(_) => panic!(
-            "observable `{}` of a six-vertex model reads an exclusion read-out",
+        ReadSpec::Exclusion(_) | ReadSpec::Combined(_) => panic!(
+            "observable `{}` is no six-vertex read-out (a family reads only its own)",
             o.name
         ),
     }
@@ -128,7 +129,10 @@ pub(crate) fn read<'s>(
 ) -> Value<'s> {
     let universe = match o.kind {
         ValueKind::Set { universe } => universe,
-        ValueKind::Scalar { .. } | ValueKind::Event | ValueKind::Sequence { .. } => 0,
+        ValueKind::Scalar { .. }
+        | ValueKind::Event
+        | ValueKind::Sequence { .. }
+        | ValueKind::Tuple { .. } => 0,
     };
     let number = |v: f64| Value::Number(o.number(v));
     let (colors, how) = match *read_of(o) {
@@ -181,6 +185,19 @@ fn exit_permutation(
             }
         }
     }
+}
+
+/// The values of `observables` in one outcome of the exact law.
+fn read_all(
+    model: &ModelSpec,
+    observables: &[&ObservableSpec],
+    out: &Outcome,
+    scratch: &mut ValueBuffers,
+) -> Vec<ValueKey> {
+    observables
+        .iter()
+        .map(|o| read(model, o, out, None, scratch).key())
+        .collect()
 }
 
 fn set_read(k: RawSetKind) -> SetRead {
@@ -302,7 +319,7 @@ impl ModelFamily for SixVertexSpec {
                 SixVertexRead::Height(..) => true,
                 SixVertexRead::ExitColumn(_) | SixVertexRead::ExitPermutation(_) => false,
             },
-            ReadSpec::Exclusion(_) => false,
+            ReadSpec::Exclusion(_) | ReadSpec::Combined(_) => false,
         }
     }
 
@@ -353,27 +370,42 @@ impl ModelFamily for SixVertexSpec {
         }
     }
 
-    fn exact_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Result<ObservableLaw, String> {
+    fn joint_obstacle(&self, _: &ModelSpec, _: &[&ObservableSpec]) -> Option<String> {
+        None
+    }
+
+    fn exact_joint_law(
+        &self,
+        model: &ModelSpec,
+        observables: &[&ObservableSpec],
+    ) -> Result<JointLaw, String> {
         let engine = build(self)?;
         let law = exact_law(self.b1.value, self.b2.value, engine.boundary())
             .map_err(|e| e.to_string())?;
         let mut scratch = ValueBuffers::default();
-        Ok(ObservableLaw::collect(
-            law.entries()
-                .iter()
-                .map(|(out, p)| (read(model, o, out, None, &mut scratch).key(), *p)),
-            1e-14 * (1 + law.len()) as f64,
-        ))
+        let mut cells = std::collections::BTreeMap::new();
+        for (out, p) in law.entries() {
+            let key = read_all(model, observables, out, &mut scratch);
+            *cells.entry(key).or_insert(0.0) += *p;
+        }
+        Ok(JointLaw {
+            cells: cells.into_iter().collect(),
+            error: 1e-14 * (1 + law.len()) as f64,
+        })
     }
 
-    fn rational_law(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<RationalLaw> {
+    fn rational_joint_law(
+        &self,
+        model: &ModelSpec,
+        observables: &[&ObservableSpec],
+    ) -> Option<RationalJointLaw> {
         let (Some((n1, d1)), Some((n2, d2))) = (self.b1.rational, self.b2.rational) else {
             return None;
         };
         let engine = build(self).ok()?;
         let law = exact_law(ratio(n1, d1), ratio(n2, d2), engine.boundary()).ok()?;
         let mut scratch = ValueBuffers::default();
-        Some(law.map(|out| read(model, o, out, None, &mut scratch).key()))
+        Some(law.map(|out| read_all(model, observables, out, &mut scratch)))
     }
 
     fn cost_per_sample(&self) -> (f64, f64) {

@@ -130,6 +130,18 @@ fn value_key(
             }
             Ok(ValueKey::Sequence(v.iter().map(|&x| x as u32).collect()))
         }
+        (ValueKind::Tuple { len }, RawTableValue::List(v)) => {
+            if v.len() != len {
+                return Err(ck.error(
+                    path,
+                    format!(
+                        "must list {len} numbers (a value of \"{}\"), got {v:?}",
+                        o.name
+                    ),
+                ));
+            }
+            Ok(ValueKey::Tuple(v.iter().map(|&x| Real(x as f64)).collect()))
+        }
         (ValueKind::Set { universe }, RawTableValue::List(v)) => {
             let mut e: Vec<usize> = Vec::with_capacity(v.len());
             for &x in v {
@@ -150,7 +162,8 @@ fn value_key(
         (ValueKind::Scalar { .. }, RawTableValue::Flag(_) | RawTableValue::List(_))
         | (ValueKind::Event, RawTableValue::Number(_) | RawTableValue::List(_))
         | (ValueKind::Sequence { .. }, RawTableValue::Number(_) | RawTableValue::Flag(_))
-        | (ValueKind::Set { .. }, RawTableValue::Number(_) | RawTableValue::Flag(_)) => {
+        | (ValueKind::Set { .. }, RawTableValue::Number(_) | RawTableValue::Flag(_))
+        | (ValueKind::Tuple { .. }, RawTableValue::Number(_) | RawTableValue::Flag(_)) => {
             Err(wrong())
         }
     }

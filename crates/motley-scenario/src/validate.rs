@@ -49,8 +49,7 @@ pub fn validate(
     let mut times: Vec<Vec<f64>> = vec![Vec::new(); raw.models.len()];
     for (oname, o) in &raw.observables {
         if let Some(m) = raw.models.get_index_of(&o.of) {
-            if let Some(t) = o.read.time() {
-                let read = o.read.name();
+            if let Some((t, read)) = o.read.as_ref().and_then(|r| Some((r.time()?, r.name()))) {
                 let path = format!("observables.{oname}.read.{read}.time");
                 times[m].push(ck.time(&path, t)?);
             }
@@ -72,14 +71,9 @@ pub fn validate(
         let Some(mi) = raw.models.get_index_of(&o.of) else {
             return Err(ck.unknown_name(&format!("{path}.of"), "model", &o.of, &model_names));
         };
-        observables.push(crate::resolve_read::observable(
-            &ck,
-            &path,
-            name,
-            mi,
-            &models[mi],
-            o,
-        )?);
+        let resolved =
+            crate::resolve_read::observable(&ck, &path, name, (mi, &models[mi]), o, &observables)?;
+        observables.push(resolved);
     }
     let obs_names: Vec<&str> = raw.observables.keys().map(|s| s.as_str()).collect();
 

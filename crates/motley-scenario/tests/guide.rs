@@ -69,6 +69,9 @@ fn all_keys() -> BTreeSet<String> {
         accepted::<RawProbability>(s),
         accepted::<RawMean>(s),
         accepted::<RawPermutationRead>(u),
+        accepted::<RawCombine>(m),
+        accepted::<RawCompare>(s),
+        accepted::<RawRelation>(u),
         accepted::<RawExactMode>(u),
         accepted::<RawStrength>(u),
     ];
