@@ -33,6 +33,8 @@ pub enum ExclusionRead {
     Arrangement(usize),
     /// The inverse arrangement.
     InverseArrangement(usize),
+    /// The class on each site (holes 0), any initial data on a segment or ring.
+    Configuration(usize),
     /// Net current of colors ≥ threshold through bond `(b, b+1)`.
     Current(i64, usize),
     /// Height at site `x` (paths at sites `> x`, colors ≥ threshold).
@@ -67,6 +69,7 @@ pub(crate) fn time_index(r: &ExclusionRead) -> usize {
         | ExclusionRead::Position(_, t)
         | ExclusionRead::Arrangement(t)
         | ExclusionRead::InverseArrangement(t)
+        | ExclusionRead::Configuration(t)
         | ExclusionRead::Current(_, t)
         | ExclusionRead::Height(_, t)
         | ExclusionRead::Swapped(_, _, t)
@@ -81,7 +84,9 @@ pub(crate) fn readouts(o: &ObservableSpec, n: Option<usize>) -> Vec<Readout> {
     match *read_of(o) {
         ExclusionRead::Window(from, to, ..) => vec![Readout::Window { from, to }],
         ExclusionRead::Position(color, _) => vec![Readout::Positions { color }],
-        ExclusionRead::Arrangement(_) | ExclusionRead::InverseArrangement(_) => {
+        ExclusionRead::Arrangement(_)
+        | ExclusionRead::InverseArrangement(_)
+        | ExclusionRead::Configuration(_) => {
             vec![Readout::Window {
                 from: 1,
                 to: n.unwrap_or(1) as i64,
@@ -144,7 +149,7 @@ pub(crate) fn read<'s>(
             )
             | None => 0.0,
         }),
-        ExclusionRead::Arrangement(_) => {
+        ExclusionRead::Arrangement(_) | ExclusionRead::Configuration(_) => {
             let seq = &mut scratch.sequence;
             seq.clear();
             seq.extend(colors().iter().map(|&x| model.to_user(x)));
@@ -247,7 +252,7 @@ impl ModelFamily for ExclusionSpec {
     }
 
     fn read_names(&self) -> &'static str {
-        "window, position, arrangement, inverse-arrangement, current, height, swapped, attempted"
+        "window, position, arrangement, inverse-arrangement, configuration, current, height, swapped, attempted"
     }
 
     fn resolve_read(
@@ -326,6 +331,15 @@ impl ModelFamily for ExclusionSpec {
                 };
                 (read, ValueKind::Sequence { len: n as usize })
             }
+            RawRead::Configuration(t) => {
+                let Some(n) = n else {
+                    return Err(cx.error(rp, "a configuration needs a segment or a ring"));
+                };
+                (
+                    ExclusionRead::Configuration(time_index(t.time)),
+                    ValueKind::Sequence { len: n as usize },
+                )
+            }
             RawRead::Current(c) => {
                 let p = format!("{rp}.current.bond");
                 match (self.lattice, n) {
@@ -372,7 +386,8 @@ impl ModelFamily for ExclusionSpec {
             | RawRead::Row(_)
             | RawRead::Column(_)
             | RawRead::ExitColumn(_)
-            | RawRead::ExitPermutation(_) => return Err(cx.wrong_family(self, raw)),
+            | RawRead::ExitPermutation(_)
+            | RawRead::ExitPlace(_) => return Err(cx.wrong_family(self, raw)),
         };
         Ok((ReadSpec::Exclusion(read), kind))
     }
@@ -385,6 +400,7 @@ impl ModelFamily for ExclusionSpec {
                 ExclusionRead::Position(..)
                 | ExclusionRead::Arrangement(_)
                 | ExclusionRead::InverseArrangement(_)
+                | ExclusionRead::Configuration(_)
                 | ExclusionRead::Swapped(..)
                 | ExclusionRead::Attempted(..) => false,
             },
@@ -427,6 +443,7 @@ impl ModelFamily for ExclusionSpec {
             | ExclusionRead::Position(..)
             | ExclusionRead::Arrangement(_)
             | ExclusionRead::InverseArrangement(_)
+            | ExclusionRead::Configuration(_)
             | ExclusionRead::Current(..)
             | ExclusionRead::Height(..)
             | ExclusionRead::Swapped(..) => None,

@@ -71,6 +71,8 @@ pub struct ValueBuffers {
     pub set: Vec<usize>,
     /// A sequence.
     pub sequence: Vec<u32>,
+    /// A tuple.
+    pub tuple: Vec<f64>,
 }
 
 /// A number ordered by [`f64::total_cmp`], so that values can key a law.

@@ -332,6 +332,11 @@ pub enum RawRead {
     ExitColumn(i64),
     /// Six-vertex: the exit permutation (every boundary edge a distinct color 1 … W + H).
     ExitPermutation(RawPermutationRead),
+    /// Six-vertex: where a color leaves, as (side, index): (0, column) through the top, (1, row)
+    /// through the right side.
+    ExitPlace(i64),
+    /// Exclusion: the class on each site at `time`, holes 0 (any initial data on a segment or ring).
+    Configuration(RawTimeRead),
     /// Exclusion: sites `from..=to` at `time`.
     Window(RawWindowRead),
     /// Exclusion: the site of a class at `time`.
@@ -355,7 +360,9 @@ impl RawRead {
             RawRead::Height(h) => h.time,
             RawRead::Window(w) => Some(w.time),
             RawRead::Position(p) => Some(p.time),
-            RawRead::Arrangement(t) | RawRead::InverseArrangement(t) => Some(t.time),
+            RawRead::Arrangement(t)
+            | RawRead::InverseArrangement(t)
+            | RawRead::Configuration(t) => Some(t.time),
             RawRead::Current(c) => Some(c.time),
             RawRead::Swapped(p) | RawRead::Attempted(p) => Some(p.time),
             RawRead::Top(_)
@@ -363,7 +370,8 @@ impl RawRead {
             | RawRead::Row(_)
             | RawRead::Column(_)
             | RawRead::ExitColumn(_)
-            | RawRead::ExitPermutation(_) => None,
+            | RawRead::ExitPermutation(_)
+            | RawRead::ExitPlace(_) => None,
         }
     }
 
@@ -377,6 +385,8 @@ impl RawRead {
             RawRead::Height(_) => "height",
             RawRead::ExitColumn(_) => "exit-column",
             RawRead::ExitPermutation(_) => "exit-permutation",
+            RawRead::ExitPlace(_) => "exit-place",
+            RawRead::Configuration(_) => "configuration",
             RawRead::Window(_) => "window",
             RawRead::Position(_) => "position",
             RawRead::Arrangement(_) => "arrangement",

@@ -34,6 +34,9 @@ pub enum SixVertexRead {
     ExitColumn(Color),
     /// The exit permutation of a boundary carrying colors 1 … W + H once each.
     ExitPermutation(PermutationRead),
+    /// Where a color leaves, as (side, index): (0, column) through the top, (1, row) through the
+    /// right side; (2, 0) if it does not appear.
+    ExitPlace(Color),
 }
 
 /// Which way an exit permutation is read. Entrances and exits are numbered counterclockwise from
@@ -150,6 +153,17 @@ pub(crate) fn read<'s>(
             exit_permutation(model, view, how, &mut scratch.sequence);
             return Value::Sequence(&scratch.sequence);
         }
+        SixVertexRead::ExitPlace(c) => {
+            let at = |side: &[Color]| side.iter().position(|&t| t == c).map(|p| p as f64 + 1.0);
+            let place = match (at(view.top()), at(view.right())) {
+                (Some(col), _) => [0.0, col],
+                (None, Some(row)) => [1.0, row],
+                (None, None) => [2.0, 0.0],
+            };
+            scratch.tuple.clear();
+            scratch.tuple.extend_from_slice(&place);
+            return Value::Tuple(&scratch.tuple);
+        }
     };
     set_elements(
         colors,
@@ -213,7 +227,7 @@ impl ModelFamily for SixVertexSpec {
     }
 
     fn read_names(&self) -> &'static str {
-        "top, right, row, column, height, exit-column, exit-permutation"
+        "top, right, row, column, height, exit-column, exit-place, exit-permutation"
     }
 
     fn resolve_read(
@@ -272,6 +286,10 @@ impl ModelFamily for SixVertexSpec {
                 SixVertexRead::ExitColumn(cx.class(&format!("{rp}.exit-column"), *c)?),
                 int,
             ),
+            RawRead::ExitPlace(c) => (
+                SixVertexRead::ExitPlace(cx.class(&format!("{rp}.exit-place"), *c)?),
+                ValueKind::Tuple { len: 2 },
+            ),
             RawRead::ExitPermutation(how) => {
                 let n = self.width + self.height;
                 let mut colors: Vec<Color> = match (&self.left, &self.bottom) {
@@ -304,7 +322,8 @@ impl ModelFamily for SixVertexSpec {
             | RawRead::InverseArrangement(_)
             | RawRead::Current(_)
             | RawRead::Swapped(_)
-            | RawRead::Attempted(_) => return Err(cx.wrong_family(self, raw)),
+            | RawRead::Attempted(_)
+            | RawRead::Configuration(_) => return Err(cx.wrong_family(self, raw)),
         };
         Ok((ReadSpec::SixVertex(read), kind))
     }
@@ -317,7 +336,9 @@ impl ModelFamily for SixVertexSpec {
                 | SixVertexRead::Row(_, how)
                 | SixVertexRead::Column(_, how) => *how == SetRead::Positions,
                 SixVertexRead::Height(..) => true,
-                SixVertexRead::ExitColumn(_) | SixVertexRead::ExitPermutation(_) => false,
+                SixVertexRead::ExitColumn(_)
+                | SixVertexRead::ExitPermutation(_)
+                | SixVertexRead::ExitPlace(_) => false,
             },
             ReadSpec::Exclusion(_) | ReadSpec::Combined(_) => false,
         }
@@ -360,7 +381,8 @@ impl ModelFamily for SixVertexSpec {
             SixVertexRead::Top(_)
             | SixVertexRead::Right(_)
             | SixVertexRead::ExitColumn(_)
-            | SixVertexRead::ExitPermutation(_) => None,
+            | SixVertexRead::ExitPermutation(_)
+            | SixVertexRead::ExitPlace(_) => None,
             SixVertexRead::Row(..) | SixVertexRead::Column(..) | SixVertexRead::Height(..) => {
                 Some(format!(
                     "observable `{}` reads inside the rectangle; exact laws cover the top and right exits",

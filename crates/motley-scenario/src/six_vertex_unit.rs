@@ -86,7 +86,8 @@ impl<'a> SixVertexUnit<'a> {
                 SixVertexRead::Top(_)
                 | SixVertexRead::Right(_)
                 | SixVertexRead::ExitColumn(_)
-                | SixVertexRead::ExitPermutation(_) => {}
+                | SixVertexRead::ExitPermutation(_)
+                | SixVertexRead::ExitPlace(_) => {}
             }
             height_slot.push(slot);
         }
