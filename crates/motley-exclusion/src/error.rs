@@ -87,6 +87,14 @@ pub enum ExclusionError {
         /// How often it occurs (`u64::MAX`: infinitely often, it is a far-field color).
         count: u64,
     },
+    /// A read-out about two particles given the same color twice.
+    #[error("read-out `{readout}` needs two different colors, got {color} twice")]
+    SameColor {
+        /// The read-out's name.
+        readout: &'static str,
+        /// The color given twice.
+        color: Color,
+    },
     /// A threshold of 0 would count holes as particles.
     #[error("a current or height threshold must be ≥ 1 (colors ≥ c count as particles), got 0")]
     ZeroThreshold,

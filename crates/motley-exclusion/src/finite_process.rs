@@ -7,7 +7,19 @@
 //!   drawn in order by `rand_distr` 0.6's `Poisson<f64>` from the stream's words (an interval of
 //!   length 0 draws nothing);
 //! - stream 1, *attempts*: the words of the attempts in order, per attempt one bond word (more only on
-//!   a Lemire rejection, probability < B / 2³²) and, when both `p > 0` and `q > 0`, one direction word.
+//!   a Lemire rejection, probability < B / 2³²) and, when both `p > 0` and `q > 0`, one direction word;
+//! - stream 2, *attempt times* ([`TIME_STREAM`]), opened only when the plan holds a hitting-time
+//!   read-out ([`Readout::SwapTime`], [`Readout::FirstAttemptTime`]): the times of the attempts of each
+//!   interval as the order statistics of `N_k` uniforms on `(t_{k−1}, t_k]`, drawn in increasing
+//!   order, one 64-bit value (two words, low first) per attempt, from the first attempt on and only
+//!   while some hitting time of the plan is still unknown (see `observer::OrderClock`).
+//!
+//! Streams 0 and 1 are read exactly as they were before stream 2 existed, whatever the plan holds:
+//! stream 2 is a separate stream, and the observer that follows hitting times and displacements only
+//! reads the configuration. So every other read-out of a sample is the same with or without
+//! hitting-time or displacement read-outs in the plan. Given the attempt count of an interval, the
+//! attempts' order statistics are independent of which bonds and directions they pick, so attaching
+//! them afterwards gives the ASEP's attempt times exactly in law.
 //!
 //! Attempts form a Poisson process of rate `B (p + q)`, each on a uniform bond with direction right
 //! with probability `p / (p + q)`: this is the ASEP exactly in law (direction probabilities are
@@ -19,7 +31,7 @@ use motley_stream::sample_stream;
 use rand_distr::{Distribution, Poisson};
 
 use crate::kernel;
-use crate::observer::{Silent, Tracker};
+use crate::observer::{Clocked, OrderClock, Silent, Tracker};
 use crate::readout::{build_plan, read, SiteView, Target};
 use crate::words::Words;
 use crate::{ExclusionError, FiniteLattice, FiniteSystem, Rates, Readings, Readout, ReadoutPlan};
@@ -28,6 +40,8 @@ use crate::{ExclusionError, FiniteLattice, FiniteSystem, Rates, Readings, Readou
 pub const COUNT_STREAM: u64 = 0;
 /// Stream of the attempts' words.
 pub const ATTEMPT_STREAM: u64 = 1;
+/// Stream of the attempt times, read only for hitting-time read-outs.
+pub const TIME_STREAM: u64 = 2;
 
 /// Multi-species ASEP on a finite lattice.
 #[derive(Debug, Clone, PartialEq)]
@@ -140,8 +154,8 @@ impl FiniteProcess {
             index,
             plan.times(),
             &mut tracker,
-            |colors, tracker| {
-                values.push(read(&self.view(colors), plan, tracker));
+            |colors, tracker, t| {
+                values.push(read(&self.view(colors), plan, tracker, t));
             },
         );
         Readings {
@@ -155,7 +169,7 @@ impl FiniteProcess {
     /// strictly and be ≥ 0; unchecked here, use [`FiniteProcess::plan`] to check).
     pub fn configurations(&self, seed: u64, index: u64, times: &[f64]) -> Vec<Vec<Color>> {
         let mut out = Vec::with_capacity(times.len());
-        self.drive(seed, index, times, &mut Tracker::default(), |c, _| {
+        self.drive(seed, index, times, &mut Tracker::default(), |c, _, _| {
             out.push(c.to_vec())
         });
         out
@@ -168,7 +182,7 @@ impl FiniteProcess {
         index: u64,
         times: &[f64],
         tracker: &mut Tracker,
-        mut at_time: impl FnMut(&[Color], &Tracker),
+        mut at_time: impl FnMut(&[Color], &Tracker, f64),
     ) -> u64 {
         let mut sites = self.system.colors().to_vec();
         let ring = self.system.lattice() == FiniteLattice::Ring;
@@ -177,9 +191,13 @@ impl FiniteProcess {
         let direction = self.rates.direction();
         let mut counts = Words::new(sample_stream(seed, index, COUNT_STREAM));
         let mut words = Words::new(sample_stream(seed, index, ATTEMPT_STREAM));
+        // Only plans with hitting times open the time stream.
+        let mut clock = (tracker.pending > 0)
+            .then(|| OrderClock::new(Words::new(sample_stream(seed, index, TIME_STREAM))));
         let mut previous = 0.0;
         let mut total = 0u64;
         for &t in times {
+            let start = previous;
             let mean = rate * (t - previous);
             previous = t;
             let n = if mean > 0.0 {
@@ -192,12 +210,18 @@ impl FiniteProcess {
                 0
             };
             total += n;
-            if tracker.is_needed() {
-                kernel::run(&mut sites, ring, n, &mut words, direction, tracker);
-            } else {
-                kernel::run(&mut sites, ring, n, &mut words, direction, &mut Silent);
+            match clock.as_mut() {
+                Some(clock) if tracker.pending > 0 => {
+                    clock.interval(start, t, n);
+                    let mut clocked = Clocked { tracker, clock };
+                    kernel::run(&mut sites, ring, n, &mut words, direction, &mut clocked);
+                }
+                _ if tracker.is_needed() => {
+                    kernel::run(&mut sites, ring, n, &mut words, direction, tracker);
+                }
+                _ => kernel::run(&mut sites, ring, n, &mut words, direction, &mut Silent),
             }
-            at_time(&sites, tracker);
+            at_time(&sites, tracker, t);
         }
         total
     }
@@ -261,6 +285,60 @@ mod tests {
                 }]
             )
             .is_err());
+    }
+
+    #[test]
+    fn new_readouts_are_checked() {
+        let p = FiniteProcess::new(
+            FiniteSystem::ring(vec![2, 1, 0, 0]).unwrap(),
+            Rates::tasep(1.0).unwrap(),
+        );
+        assert!(matches!(
+            p.plan(&[1.0], vec![Readout::SwapTime { a: 2, b: 2 }]),
+            Err(ExclusionError::SameColor { color: 2, .. })
+        ));
+        assert!(matches!(
+            p.plan(&[1.0], vec![Readout::Displacement { color: 0 }]),
+            Err(ExclusionError::ColorNotUnique { color: 0, count: 2 })
+        ));
+        assert!(matches!(
+            p.plan(&[1.0], vec![Readout::FirstAttemptTime { from: 3, onto: 1 }]),
+            Err(ExclusionError::ColorNotUnique { color: 3, count: 0 })
+        ));
+        let plan = p
+            .plan(
+                &[0.0, 1.0],
+                vec![
+                    Readout::SwapTime { a: 2, b: 1 },
+                    Readout::FirstAttemptTime { from: 1, onto: 2 },
+                    Readout::Displacement { color: 1 },
+                ],
+            )
+            .unwrap();
+        // At time 0 nothing has happened: both times censored at 0, displacement 0.
+        for i in 0..50 {
+            let r = p.sample(1, i, &plan);
+            let at0 = &r.values[0];
+            assert_eq!(
+                at0[..],
+                [
+                    Reading::Time {
+                        time: 0.0,
+                        censored: true
+                    },
+                    Reading::Time {
+                        time: 0.0,
+                        censored: true
+                    },
+                    Reading::Count(0)
+                ]
+            );
+            // At time 1: a censored time is the read-out time, an event time lies in (0, 1].
+            let Reading::Time { time, censored } = r.values[1][1] else {
+                panic!()
+            };
+            assert!(time > 0.0 && time <= 1.0 && (!censored || time == 1.0));
+        }
     }
 
     #[test]

@@ -19,10 +19,42 @@
 //! # Reproducibility
 //! Sample `i` under seed `s` draws only from [`motley_stream::sample_stream`]`(s, i, ·)`; the stream
 //! layouts are documented on [`FiniteProcess`] (module `finite_process`: stream 0 Poisson counts per
-//! read-out interval, stream 1 attempt words) and [`LineProcess`] (stream 0: gaps and attempts). On
-//! the segment and ring no random choice looks at the state, so one seed drives the colored and every
-//! colorblind run and projections commute with the dynamics pathwise. Results never depend on thread
-//! count: parallelise over sample indices. Value-stability tests freeze the layout.
+//! read-out interval, stream 1 attempt words, stream 2 attempt times — opened only for hitting-time
+//! read-outs) and [`LineProcess`] (stream 0: gaps and attempts). On the segment and ring no random
+//! choice looks at the state, so one seed drives the colored and every colorblind run and projections
+//! commute with the dynamics pathwise. Results never depend on thread count: parallelise over sample
+//! indices. Value-stability tests freeze the layout.
+//!
+//! # Hitting times, displacements, overtaking
+//! [`Readout::SwapTime`] `{ a, b }` and [`Readout::FirstAttemptTime`] `{ from, onto }` report first
+//! times as [`Reading::Time`] `{ time, censored }`: read at time `t`, the first time if it is `≤ t`,
+//! else `time = t`, `censored = true`. [`Readout::Displacement`] `{ color }` is the particle's
+//! unwrapped displacement `D` (steps right minus steps left; on the ring a step `n → 1` counts `+1`,
+//! nothing is reduced mod `n`); on the segment and on `Z` it is the current minus the initial site.
+//!
+//! *Swapped, on each lattice.* With initial sites `s_a`, `s_b`, unwrapped positions
+//! `X_a = s_a + D_a`, `X_b = s_b + D_b` and `Δ = X_a − X_b`: on the segment and on `Z`, `a` and `b`
+//! have swapped when the sign of `Δ` differs from that of `Δ(0)` (their site order flipped). On the
+//! ring of `n` sites `Δ` is never a multiple of `n` (two particles never share a site), and `a` and
+//! `b` have swapped — one has *overtaken* the other — when `⌊Δ/n⌋ ≠ ⌊Δ(0)/n⌋`, i.e. when `a`'s
+//! unwrapped position has passed `b`'s shifted by the multiple `k n` of `n` that lay between them at
+//! time 0 (`k n < Δ(0) < (k+1) n`). `SwapTime` is the first such time. On every lattice it is the time
+//! of the first exchange of `a` and `b` with each other: a move against any other color changes `Δ`
+//! by `±1`, which cannot cross a multiple of `n` (nor, on the segment and `Z`, change its sign), and
+//! an exchange of `a` with `b` changes `Δ` by `±2` across exactly one. [`Readout::Swapped`] is
+//! unchanged and compares site numbers, also on the ring (where it differs from overtaking).
+//!
+//! *How the times are drawn.* On `Z` the attempt times are the sums of the exponential gaps already
+//! drawn, so hitting times are exact and no draw is added. On the segment and ring the sampler draws
+//! only the number of attempts `N_k` of each read-out interval; when (and only when) a plan holds a
+//! hitting-time read-out, the attempts of the interval get times from stream 2 ([`TIME_STREAM`]),
+//! the `N_k` order statistics of uniforms on the interval in increasing order (exact in law: given
+//! `N_k`, a Poisson process's points are such order statistics, independent of the marks — bonds and
+//! directions — drawn from stream 1). Streams 0 and 1 are read exactly as before, so **a plan without
+//! these read-outs gives exactly the samples it gave before, and adding them to a plan changes none
+//! of its other readings** (tested). Displacements draw nothing on any lattice. Time values use the
+//! platform's `ln` and `exp`, so their last bits may differ between platforms; which attempt is the
+//! hitting one does not.
 //!
 //! # Exact laws
 //! [`ExactSolver`] enumerates arrangements of a segment or ring (≤ [`MAX_EXACT_SITES`] sites) and
@@ -72,7 +104,7 @@ mod words;
 
 pub use error::ExclusionError;
 pub use exact::{ExactSolver, DEFAULT_TAIL, MAX_EXACT_SITES, MAX_EXACT_STATES};
-pub use finite_process::{FiniteProcess, ATTEMPT_STREAM, COUNT_STREAM};
+pub use finite_process::{FiniteProcess, ATTEMPT_STREAM, COUNT_STREAM, TIME_STREAM};
 pub use finite_system::{FiniteLattice, FiniteSystem};
 pub use law::{total_variation, Law};
 pub use line_data::LineData;

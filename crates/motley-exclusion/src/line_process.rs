@@ -16,6 +16,10 @@
 //! attempt. A gap is `E / (m (p + q))` with `E` drawn by `rand_distr` 0.6's `Exp1` (ziggurat on
 //! 64-bit values made of two consecutive words, low word first) and `m` the number of candidate bonds
 //! after the previous attempt. The gap that crosses a read-out time is kept (not redrawn).
+//!
+//! Hitting times ([`Readout::SwapTime`], [`Readout::FirstAttemptTime`]) are the exact times of the
+//! attempts at which the events happen (the running sum of the gaps above); they and
+//! [`Readout::Displacement`] draw nothing, so the layout is the same for every plan.
 
 use motley_colorblind::{Color, Projection};
 use motley_stream::sample_stream;
@@ -134,6 +138,7 @@ impl LineState {
             self.cells[i] = new_left;
             self.cells[i + 1] = new_right;
             if O::ACTIVE {
+                observer.set_time(*next);
                 observer.attempt(x, right, (a, b), new_right);
             }
             if x == self.lo - 1 && new_left != self.left {
@@ -265,7 +270,7 @@ impl LineProcess {
             } else {
                 state.advance(t, &mut next, &mut words, direction, bond_rate, &mut Silent)
             };
-            values.push(read(&state, plan, &tracker));
+            values.push(read(&state, plan, &tracker, t));
         }
         Readings {
             values,
@@ -335,5 +340,64 @@ mod tests {
             ),
             Err(ExclusionError::InfiniteHeight { .. })
         ));
+        // A far-field color is not one particle.
+        assert!(matches!(
+            p.plan(&[1.0], vec![Readout::Displacement { color: 1 }]),
+            Err(ExclusionError::ColorNotUnique { color: 1, .. })
+        ));
+    }
+
+    /// Two particles on `Z` among holes, TASEP: the stronger one behind. Hitting times are attempt
+    /// times, so they are exact sums of gaps: an uncensored swap time lies in the interval where it
+    /// first appears, and the displacements agree with the positions.
+    #[test]
+    fn hitting_times_and_displacements_on_the_line() {
+        let p = LineProcess::new(
+            LineData::new(0, 0, 0, vec![2, 1]).unwrap(),
+            Rates::tasep(1.0).unwrap(),
+        );
+        let plan = p
+            .plan(
+                &[0.5, 3.0],
+                vec![
+                    Readout::SwapTime { a: 2, b: 1 },
+                    Readout::Displacement { color: 2 },
+                    Readout::Displacement { color: 1 },
+                    Readout::Positions { color: 2 },
+                    Readout::Positions { color: 1 },
+                ],
+            )
+            .unwrap();
+        let mut swapped = 0;
+        for i in 0..200 {
+            let r = p.sample(8, i, &plan);
+            for (v, t) in r.values.iter().zip([0.5, 3.0]) {
+                assert_eq!(
+                    v[3],
+                    Reading::Positions(vec![match v[1] {
+                        Reading::Count(d) => d,
+                        _ => panic!(),
+                    }])
+                );
+                assert_eq!(
+                    v[4],
+                    Reading::Positions(vec![match v[2] {
+                        Reading::Count(d) => 1 + d,
+                        _ => panic!(),
+                    }])
+                );
+                let Reading::Time { time, censored } = v[0] else {
+                    panic!()
+                };
+                assert!(time <= t && (!censored || time == t));
+                // TASEP, stronger behind: swapped now ⇔ swap time not censored.
+                let (Reading::Positions(a), Reading::Positions(b)) = (&v[3], &v[4]) else {
+                    panic!()
+                };
+                assert_eq!(a[0] > b[0], !censored);
+                swapped += usize::from(!censored);
+            }
+        }
+        assert!(swapped > 0 && swapped < 400);
     }
 }

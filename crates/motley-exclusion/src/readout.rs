@@ -13,10 +13,19 @@
 //! `< c`). On the segment and on `Z` this equals `#{y > x : color_t(y) ≥ c}` at every time, because
 //! particles are conserved; on the ring it is the usual lifted height (`h_c(x) − h_c(x')` counts the
 //! particles in `(x, x']`).
+//!
+//! # Hitting times and displacements
+//! [`Readout::SwapTime`] and [`Readout::FirstAttemptTime`] are first times along the path, answered
+//! by [`Reading::Time`]: at read-out time `t`, the first time if it is `≤ t`, else `t` marked
+//! censored. [`Readout::Displacement`] is the unwrapped displacement of one particle. The definitions
+//! (overtaking on the ring included) and how the times are drawn are in the crate docs.
+
+use std::cmp::Ordering;
+use std::hash::{Hash, Hasher};
 
 use motley_colorblind::Color;
 
-use crate::observer::Tracker;
+use crate::observer::{HitKind, Tracker};
 use crate::ExclusionError;
 
 /// Longest window a read-out may ask for.
@@ -57,6 +66,10 @@ pub enum Readout {
     },
     /// Whether the two (unique) colors are now in the opposite order from time 0 (order of site
     /// numbers; on the ring, as seen from the cut between sites `n` and `1`).
+    ///
+    /// On the ring this compares site numbers, not overtaking: a particle crossing the bond
+    /// `(n, 1)` changes the order of site numbers without passing anyone, and two overtakings in a
+    /// row leave it unchanged. For the first overtaking on the ring use [`Readout::SwapTime`].
     Swapped {
         /// One color.
         a: Color,
@@ -72,6 +85,42 @@ pub enum Readout {
         /// The particle jumped onto.
         onto: Color,
     },
+    /// The first time the two (unique, different) colors `a` and `b` are in the opposite order
+    /// from time 0, answered by [`Reading::Time`] (censored at the read-out time if not yet).
+    ///
+    /// On the segment and on `Z`: the first time the order of their site numbers flips. On the ring:
+    /// the first time one has overtaken the other. With unwrapped positions `X = s + D` (initial site
+    /// `s`, unwrapped displacement `D` as in [`Readout::Displacement`]) and `Δ = X_a − X_b`, which is
+    /// never a multiple of `n`, `a` and `b` have swapped at time `t` when `⌊Δ(t)/n⌋ ≠ ⌊Δ(0)/n⌋`, i.e.
+    /// when `Δ` has crossed a multiple of `n`. (On the segment `|Δ| < n`, so the same formula is the
+    /// flip of the order there.) On every lattice this first happens exactly at the first exchange of
+    /// `a` and `b` with each other: moves against other colors change `Δ` by `±1` and cannot cross a
+    /// multiple of `n` (they would put `a` and `b` on one site), an exchange of the two changes it by
+    /// `±2` across one.
+    SwapTime {
+        /// One color.
+        a: Color,
+        /// The other.
+        b: Color,
+    },
+    /// The first time the particle of color `from` attempts a jump onto the site of color `onto`,
+    /// successful or not (attempts as in [`Readout::Attempted`]), answered by [`Reading::Time`]
+    /// (censored at the read-out time if not yet). `Attempted` is `true` at `t` exactly when this is
+    /// not censored at `t`.
+    FirstAttemptTime {
+        /// The particle attempting.
+        from: Color,
+        /// The particle jumped onto.
+        onto: Color,
+    },
+    /// The net number of steps the particle of a unique color has moved since time 0 (a step right,
+    /// `x → x + 1`, counts `+1`, a step left `−1`; on the ring a step across the bond `(n, 1)` from
+    /// `n` to `1` counts `+1` and is not reduced mod `n`), answered by [`Reading::Count`]. On the
+    /// segment and on `Z` it is the current site minus the initial site.
+    Displacement {
+        /// The color followed.
+        color: Color,
+    },
 }
 
 impl Readout {
@@ -85,12 +134,19 @@ impl Readout {
             Readout::Height { .. } => "height",
             Readout::Swapped { .. } => "swapped",
             Readout::Attempted { .. } => "attempted",
+            Readout::SwapTime { .. } => "swap-time",
+            Readout::FirstAttemptTime { .. } => "first-attempt-time",
+            Readout::Displacement { .. } => "displacement",
         }
     }
 }
 
 /// The value of one read-out at one time.
-#[derive(Debug, Clone, PartialEq, Eq, Hash, PartialOrd, Ord)]
+///
+/// Equality, order and hashing are structural, with times compared by [`f64::total_cmp`] (so
+/// `Eq`, `Ord` and `Hash` agree; the engine never reports a NaN or `−0.0` time). Variants order as
+/// listed.
+#[derive(Debug, Clone)]
 pub enum Reading {
     /// Colors of a window.
     Colors(Vec<Color>),
@@ -102,6 +158,68 @@ pub enum Reading {
     Count(i64),
     /// A yes/no read-out.
     Flag(bool),
+    /// A hitting time read at time `t`: the first time of the event if it is `≤ t`
+    /// (`censored = false`), else `time = t` and `censored = true`.
+    Time {
+        /// The hitting time, or the read-out time if censored.
+        time: f64,
+        /// Whether the event had not happened by the read-out time.
+        censored: bool,
+    },
+}
+
+/// What [`Reading`]'s comparisons see: the same variants, a time as its `total_cmp` key.
+#[derive(PartialEq, Eq, Hash, PartialOrd, Ord)]
+enum ReadingKey<'a> {
+    Colors(&'a [Color]),
+    Positions(&'a [i64]),
+    Classes(&'a [u32]),
+    Count(i64),
+    Flag(bool),
+    Time(i64, bool),
+}
+
+impl Reading {
+    fn key(&self) -> ReadingKey<'_> {
+        match self {
+            Reading::Colors(c) => ReadingKey::Colors(c),
+            Reading::Positions(p) => ReadingKey::Positions(p),
+            Reading::Classes(c) => ReadingKey::Classes(c),
+            Reading::Count(v) => ReadingKey::Count(*v),
+            Reading::Flag(f) => ReadingKey::Flag(*f),
+            Reading::Time { time, censored } => {
+                // The order of `f64::total_cmp` as an integer: flip the magnitude bits of negatives.
+                let bits = time.to_bits() as i64;
+                ReadingKey::Time(bits ^ (((bits >> 63) as u64) >> 1) as i64, *censored)
+            }
+        }
+    }
+}
+
+impl PartialEq for Reading {
+    fn eq(&self, other: &Self) -> bool {
+        self.key() == other.key()
+    }
+}
+
+impl Eq for Reading {}
+
+impl Hash for Reading {
+    fn hash<H: Hasher>(&self, state: &mut H) {
+        self.key().hash(state);
+    }
+}
+
+impl PartialOrd for Reading {
+    fn partial_cmp(&self, other: &Self) -> Option<Ordering> {
+        Some(self.cmp(other))
+    }
+}
+
+impl Ord for Reading {
+    fn cmp(&self, other: &Self) -> Ordering {
+        self.key().cmp(&other.key())
+    }
 }
 
 /// Everything one sample reports.
@@ -137,6 +255,10 @@ pub(crate) enum Resolved {
     Swapped(Color, Color, bool),
     /// Tracker slot.
     Attempted(usize),
+    /// Tracker slot of the event.
+    HitTime(usize),
+    /// Tracker slot.
+    Displacement(usize),
 }
 
 /// Read-out times and read-outs, checked against one process.
@@ -307,6 +429,27 @@ pub(crate) fn build_plan(
                 tracker.attempts.push((from, onto, false));
                 Resolved::Attempted(slot)
             }
+            Readout::SwapTime { a, b } => {
+                unique(view, a)?;
+                unique(view, b)?;
+                if a == b {
+                    return Err(ExclusionError::SameColor {
+                        readout: r.name(),
+                        color: a,
+                    });
+                }
+                Resolved::HitTime(tracker.add_hit(HitKind::Swap(a, b)))
+            }
+            Readout::FirstAttemptTime { from, onto } => {
+                unique(view, from)?;
+                unique(view, onto)?;
+                Resolved::HitTime(tracker.add_hit(HitKind::Attempt(from, onto)))
+            }
+            Readout::Displacement { color } => {
+                unique(view, color)?;
+                tracker.displacements.push((color, 0));
+                Resolved::Displacement(tracker.displacements.len() - 1)
+            }
         };
         resolved.push(item);
     }
@@ -319,8 +462,14 @@ pub(crate) fn build_plan(
     })
 }
 
-/// The readings of `plan` on the configuration `view` with tracker state `tracker`.
-pub(crate) fn read(view: &dyn SiteView, plan: &ReadoutPlan, tracker: &Tracker) -> Vec<Reading> {
+/// The readings of `plan` at read-out time `time` on the configuration `view` with tracker state
+/// `tracker`.
+pub(crate) fn read(
+    view: &dyn SiteView,
+    plan: &ReadoutPlan,
+    tracker: &Tracker,
+    time: f64,
+) -> Vec<Reading> {
     plan.resolved
         .iter()
         .map(|r| match *r {
@@ -341,6 +490,17 @@ pub(crate) fn read(view: &dyn SiteView, plan: &ReadoutPlan, tracker: &Tracker) -
                 Reading::Flag((pa < pb) != a_left)
             }
             Resolved::Attempted(slot) => Reading::Flag(tracker.attempts[slot].2),
+            Resolved::HitTime(slot) => match tracker.hits[slot].1 {
+                Some(hit) => Reading::Time {
+                    time: hit,
+                    censored: false,
+                },
+                None => Reading::Time {
+                    time,
+                    censored: true,
+                },
+            },
+            Resolved::Displacement(slot) => Reading::Count(tracker.displacements[slot].1),
         })
         .collect()
 }
@@ -359,5 +519,25 @@ mod tests {
         ));
         assert_eq!(check_times(&[-1.0]), Err(ExclusionError::BadTime(-1.0)));
         assert!(check_times(&[f64::INFINITY]).is_err());
+    }
+
+    #[test]
+    fn time_readings_compare_by_total_order() {
+        let t = |time: f64, censored: bool| Reading::Time { time, censored };
+        assert_eq!(t(1.5, false), t(1.5, false));
+        assert_ne!(t(1.5, false), t(1.5, true));
+        assert_ne!(t(1.5, false), t(1.5 + 1e-15, false));
+        assert!(t(0.25, true) < t(0.5, false));
+        assert!(t(1.0, false) < t(1.0, true));
+        assert!(t(-2.0, false) < t(-1.0, false));
+        assert!(t(-1.0, false) < t(0.0, false));
+        // total_cmp puts −0.0 before +0.0; the integer key must agree everywhere.
+        for (x, y) in [(-0.0, 0.0), (-3.5, 2.0), (1e-300, 1e300), (-1e300, -1e-300)] {
+            assert_eq!(t(x, false).cmp(&t(y, false)), x.total_cmp(&y));
+            assert_eq!(t(y, false).cmp(&t(x, false)), y.total_cmp(&x));
+        }
+        // Variants keep their order: every earlier variant sorts before a time.
+        assert!(Reading::Flag(true) < t(0.0, false));
+        assert!(Reading::Count(5) < Reading::Flag(false));
     }
 }

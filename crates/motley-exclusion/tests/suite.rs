@@ -2,6 +2,7 @@
 
 mod color_position;
 mod common;
+mod hitting_times;
 mod line_published;
 mod monte_carlo_exact;
 mod properties;
