@@ -58,7 +58,9 @@
 //! # Exact laws
 //! [`exact_law`] gives the joint law of (top exits, right exits) as an [`ExactLaw`] sorted by
 //! [`Outcome`], in rationals ([`num_rational::BigRational`], via [`ratio`]) or `f64`. Every read-out
-//! of the exits, projection or set observable follows by [`ExactLaw::map`].
+//! of the exits, projection or set observable follows by [`ExactLaw::map`]. [`exact_law_with_heights`]
+//! adds the joint law of a list of [`HeightQuery`] values, and [`exact_height_law`] gives the heights
+//! alone on the coarsest colors that determine them.
 //!
 //! # Examples
 //! ```
@@ -113,7 +115,7 @@ mod weights;
 pub use boundary::{Boundary, ColorRule, Edge, Side};
 pub use configuration::Configuration;
 pub use error::SixVertexError;
-pub use exact::{exact_law, EXACT_STATE_LIMIT};
+pub use exact::{exact_height_law, exact_law, exact_law_with_heights, EXACT_STATE_LIMIT};
 pub use law::ExactLaw;
 pub use model::Model;
 pub use motley_colorblind::Color;

@@ -2,6 +2,7 @@
 
 mod color_position_symmetry;
 mod common;
+mod exact_heights;
 mod exact_sizes;
 mod exit_speed;
 mod kernels;
@@ -11,4 +12,5 @@ mod monte_carlo_vs_exact;
 mod permutation_symmetry;
 mod properties;
 mod q_moment;
+mod shift_invariance;
 mod value_stability;
