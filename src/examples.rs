@@ -45,6 +45,11 @@ pub const EXAMPLES: &[(&str, &str)] = &[
         include_str!("../scenarios/permutation-symmetry.yaml"),
     ),
     ("q-moments", include_str!("../scenarios/q-moments.yaml")),
+    (
+        "shift-invariance",
+        include_str!("../scenarios/shift-invariance.yaml"),
+    ),
+    ("swap-time", include_str!("../scenarios/swap-time.yaml")),
 ];
 
 /// The text of example `name`.

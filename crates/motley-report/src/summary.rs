@@ -439,6 +439,17 @@ fn estimates(s: &mut String, claim: &ClaimResult, stem: &str) {
         }
         s.push('\n');
     }
+    for c in &est.censoring {
+        let _ = writeln!(
+            s,
+            "Censored: {} had not happened in {} of {} samples ({}) by the horizon; those samples read the horizon, {}.\n",
+            code(&c.observable),
+            c.censored,
+            c.samples,
+            num(c.censored as f64 / c.samples.max(1) as f64),
+            num(c.at)
+        );
+    }
     if !est.laws.is_empty() {
         let sizes: Vec<String> = est
             .laws

@@ -32,8 +32,8 @@ use crate::family::{Real, ValueKey};
 use crate::reference_law::{reference_cdf, reference_name};
 use crate::result::Outcome;
 use crate::result::{
-    ClaimKindName, ClaimResult, DecidedBy, Effect, Estimates, Series, Stated, StatedRole,
-    TestResult,
+    Censoring, ClaimKindName, ClaimResult, DecidedBy, Effect, Estimates, Series, Stated,
+    StatedRole, TestResult,
 };
 use crate::scenario::{ClaimKind, ClaimSpec, ReferenceSpec, Scenario, TableLaw};
 
@@ -757,6 +757,16 @@ pub fn evaluate(
     }
     for x in sl.iter().filter(|x| x.partner.is_none()) {
         let o = &s.observables[x.observable];
+        let family = s.models[o.model].kind.family();
+        if let (Some(h), Accumulator::Scalar(v)) = (family.censored_at(&o.read), accs(slots, x)) {
+            let at = o.number(h);
+            est.censoring.push(Censoring {
+                observable: o.name.clone(),
+                at,
+                censored: v.values.iter().filter(|&&y| y == at).count() as u64,
+                samples: v.values.len() as u64,
+            });
+        }
         if !o.kind.has_full_law() {
             continue;
         }

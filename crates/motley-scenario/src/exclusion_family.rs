@@ -15,7 +15,7 @@ use crate::exclusion_unit::{build, ExclusionUnit, Process};
 use crate::family::{
     JointLaw, ModelFamily, RationalJointLaw, ReadContext, UnitSampler, Value, ValueBuffers,
 };
-use crate::raw::{RawRead, RawSetKind};
+use crate::raw::{RawPairRead, RawRead, RawSetKind};
 use crate::read_set::set_elements;
 use crate::scenario::{
     ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, Profile, ReadSpec, SetRead,
@@ -39,10 +39,31 @@ pub enum ExclusionRead {
     Current(i64, usize),
     /// Height at site `x` (paths at sites `> x`, colors ≥ threshold).
     Height(i64, usize),
-    /// Two colors in the opposite order.
+    /// Two colors in the opposite order (segment and line: order of site numbers).
     Swapped(Color, Color, usize),
+    /// On a ring: one of two colors has overtaken the other, net. With initial sites `s_a`, `s_b`
+    /// and unwrapped displacements `D_a`, `D_b`, `Δ = (s_a + D_a) − (s_b + D_b)` is never a multiple
+    /// of `n`; they have swapped when `⌊Δ/n⌋ ≠ ⌊Δ(0)/n⌋`, `start` being `Δ(0) = s_a − s_b`.
+    Overtaken {
+        /// One color.
+        a: Color,
+        /// The other.
+        b: Color,
+        /// Time index.
+        time: usize,
+        /// `s_a − s_b`.
+        start: i64,
+        /// Sites of the ring.
+        n: usize,
+    },
     /// One of two colors attempted a jump onto the other.
     Attempted(Color, Color, usize),
+    /// The first time two colors are in the opposite order (ring: overtaking), censored.
+    SwapTime(Color, Color, usize),
+    /// The first time one of two colors attempts a jump onto the other, censored.
+    AttemptTime(Color, Color, usize),
+    /// The net number of steps a color has moved (unwrapped on the ring).
+    Displacement(Color, usize),
 }
 
 /// Largest segment or ring decided exactly.
@@ -73,7 +94,11 @@ pub(crate) fn time_index(r: &ExclusionRead) -> usize {
         | ExclusionRead::Current(_, t)
         | ExclusionRead::Height(_, t)
         | ExclusionRead::Swapped(_, _, t)
-        | ExclusionRead::Attempted(_, _, t) => t,
+        | ExclusionRead::Overtaken { time: t, .. }
+        | ExclusionRead::Attempted(_, _, t)
+        | ExclusionRead::SwapTime(_, _, t)
+        | ExclusionRead::AttemptTime(_, _, t)
+        | ExclusionRead::Displacement(_, t) => t,
     }
 }
 
@@ -95,6 +120,16 @@ pub(crate) fn readouts(o: &ObservableSpec, n: Option<usize>) -> Vec<Readout> {
         ExclusionRead::Current(bond, _) => vec![Readout::Current { bond, threshold }],
         ExclusionRead::Height(site, _) => vec![Readout::Height { site, threshold }],
         ExclusionRead::Swapped(a, b, _) => vec![Readout::Swapped { a, b }],
+        ExclusionRead::Overtaken { a, b, .. } => vec![
+            Readout::Displacement { color: a },
+            Readout::Displacement { color: b },
+        ],
+        ExclusionRead::SwapTime(a, b, _) => vec![Readout::SwapTime { a, b }],
+        ExclusionRead::AttemptTime(a, b, _) => vec![
+            Readout::FirstAttemptTime { from: a, onto: b },
+            Readout::FirstAttemptTime { from: b, onto: a },
+        ],
+        ExclusionRead::Displacement(color, _) => vec![Readout::Displacement { color }],
         ExclusionRead::Attempted(a, b, _) => vec![
             Readout::Attempted { from: a, onto: b },
             Readout::Attempted { from: b, onto: a },
@@ -117,18 +152,38 @@ pub(crate) fn read<'s>(
     let colors = || match reading {
         Some(Reading::Colors(c)) => c.as_slice(),
         Some(
-            Reading::Positions(_) | Reading::Classes(_) | Reading::Count(_) | Reading::Flag(_),
+            Reading::Positions(_)
+            | Reading::Classes(_)
+            | Reading::Count(_)
+            | Reading::Flag(_)
+            | Reading::Time { .. },
         )
         | None => &[],
     };
     let count = || match reading {
         Some(Reading::Count(v)) => *v as f64,
         Some(
-            Reading::Colors(_) | Reading::Positions(_) | Reading::Classes(_) | Reading::Flag(_),
+            Reading::Colors(_)
+            | Reading::Positions(_)
+            | Reading::Classes(_)
+            | Reading::Flag(_)
+            | Reading::Time { .. },
         )
         | None => 0.0,
     };
     let flag = |k: usize| matches!(readings.get(first + k), Some(Reading::Flag(true)));
+    // A first time, censored at the read-out time when the event had not come yet.
+    let time = |k: usize| match readings.get(first + k) {
+        Some(Reading::Time { time, .. }) => *time,
+        Some(
+            Reading::Colors(_)
+            | Reading::Positions(_)
+            | Reading::Classes(_)
+            | Reading::Count(_)
+            | Reading::Flag(_),
+        )
+        | None => 0.0,
+    };
     match *read_of(o) {
         ExclusionRead::Window(_, _, _, how) => {
             let universe = match o.kind {
@@ -145,7 +200,11 @@ pub(crate) fn read<'s>(
         ExclusionRead::Position(..) => number(match reading {
             Some(Reading::Positions(p)) => p.first().copied().unwrap_or(0) as f64,
             Some(
-                Reading::Colors(_) | Reading::Classes(_) | Reading::Count(_) | Reading::Flag(_),
+                Reading::Colors(_)
+                | Reading::Classes(_)
+                | Reading::Count(_)
+                | Reading::Flag(_)
+                | Reading::Time { .. },
             )
             | None => 0.0,
         }),
@@ -170,6 +229,25 @@ pub(crate) fn read<'s>(
         }
         ExclusionRead::Current(..) | ExclusionRead::Height(..) => number(count()),
         ExclusionRead::Swapped(..) => Value::Event(flag(0)),
+        ExclusionRead::Overtaken { start, n, .. } => {
+            let d = |k: usize| match readings.get(first + k) {
+                Some(Reading::Count(v)) => *v,
+                Some(
+                    Reading::Colors(_)
+                    | Reading::Positions(_)
+                    | Reading::Classes(_)
+                    | Reading::Flag(_)
+                    | Reading::Time { .. },
+                )
+                | None => 0,
+            };
+            let n = n as i64;
+            let now = start + d(0) - d(1);
+            Value::Event(now.div_euclid(n) != start.div_euclid(n))
+        }
+        ExclusionRead::SwapTime(..) => number(time(0)),
+        ExclusionRead::AttemptTime(..) => number(time(0).min(time(1))),
+        ExclusionRead::Displacement(..) => number(count()),
         ExclusionRead::Attempted(..) => Value::Event(flag(0) || flag(1)),
     }
 }
@@ -209,7 +287,13 @@ pub(crate) fn reading_of_arrangement(
             let after = site(now, a).unwrap_or(0) < site(now, b).unwrap_or(0);
             Reading::Flag(before != after)
         }
-        Readout::Attempted { .. } => return None,
+        // On a segment the displacement is the site change; hitting times depend on the path.
+        Readout::Displacement { color } => Reading::Count(
+            site(now, color).map_or(0, |x| x as i64) - site(initial, color).map_or(0, |x| x as i64),
+        ),
+        Readout::Attempted { .. } | Readout::SwapTime { .. } | Readout::FirstAttemptTime { .. } => {
+            return None
+        }
     })
 }
 
@@ -252,7 +336,7 @@ impl ModelFamily for ExclusionSpec {
     }
 
     fn read_names(&self) -> &'static str {
-        "window, position, arrangement, inverse-arrangement, configuration, current, height, swapped, attempted"
+        "window, position, arrangement, inverse-arrangement, configuration, current, height, swapped, attempted, swap-time, attempt-time, displacement"
     }
 
     fn resolve_read(
@@ -281,6 +365,17 @@ impl ModelFamily for ExclusionSpec {
             }
             Ok(col)
         };
+        // Two different followed classes and a time.
+        let pair = |pr: &RawPairRead| -> Result<(Color, Color, usize), ScenarioError> {
+            let p = format!("{rp}.{}.classes", raw.name());
+            let a = single(&format!("{p}[0]"), pr.classes[0])?;
+            let b = single(&format!("{p}[1]"), pr.classes[1])?;
+            if a == b {
+                return Err(cx.error(&p, "needs two different classes"));
+            }
+            Ok((a, b, time_index(pr.time)))
+        };
+        let time_kind = ValueKind::Scalar { integer: false };
         let (read, kind) = match raw {
             RawRead::Window(w) => {
                 let p = format!("{rp}.window");
@@ -366,20 +461,46 @@ impl ModelFamily for ExclusionSpec {
                 };
                 (ExclusionRead::Height(h.x, time_index(t)), int)
             }
-            RawRead::Swapped(pr) | RawRead::Attempted(pr) => {
-                let p = format!("{rp}.{}.classes", raw.name());
-                let a = single(&format!("{p}[0]"), pr.classes[0])?;
-                let b = single(&format!("{p}[1]"), pr.classes[1])?;
-                if a == b {
-                    return Err(cx.error(&p, "needs two different classes"));
+            RawRead::Swapped(pr) => {
+                let (a, b, ti) = pair(pr)?;
+                match self.lattice {
+                    LatticeSpec::Ring(n) => {
+                        let site = |c: Color| match &self.initial {
+                            InitialSpec::Sites(s) => s.iter().position(|&x| x == c).unwrap_or(0),
+                            InitialSpec::Line { .. } => 0,
+                        } as i64;
+                        let start = site(a) - site(b);
+                        (
+                            ExclusionRead::Overtaken {
+                                a,
+                                b,
+                                time: ti,
+                                start,
+                                n,
+                            },
+                            ValueKind::Event,
+                        )
+                    }
+                    LatticeSpec::Segment(_) | LatticeSpec::Line => {
+                        (ExclusionRead::Swapped(a, b, ti), ValueKind::Event)
+                    }
                 }
-                let ti = time_index(pr.time);
-                let read = if matches!(raw, RawRead::Swapped(_)) {
-                    ExclusionRead::Swapped(a, b, ti)
-                } else {
-                    ExclusionRead::Attempted(a, b, ti)
-                };
-                (read, ValueKind::Event)
+            }
+            RawRead::Attempted(pr) => {
+                let (a, b, ti) = pair(pr)?;
+                (ExclusionRead::Attempted(a, b, ti), ValueKind::Event)
+            }
+            RawRead::SwapTime(pr) => {
+                let (a, b, ti) = pair(pr)?;
+                (ExclusionRead::SwapTime(a, b, ti), time_kind)
+            }
+            RawRead::AttemptTime(pr) => {
+                let (a, b, ti) = pair(pr)?;
+                (ExclusionRead::AttemptTime(a, b, ti), time_kind)
+            }
+            RawRead::Displacement(pr) => {
+                let c = single(&format!("{rp}.displacement.class"), pr.class)?;
+                (ExclusionRead::Displacement(c, time_index(pr.time)), int)
             }
             RawRead::Top(_)
             | RawRead::Right(_)
@@ -401,6 +522,10 @@ impl ModelFamily for ExclusionSpec {
                 | ExclusionRead::Arrangement(_)
                 | ExclusionRead::InverseArrangement(_)
                 | ExclusionRead::Configuration(_)
+                | ExclusionRead::Overtaken { .. }
+                | ExclusionRead::SwapTime(..)
+                | ExclusionRead::AttemptTime(..)
+                | ExclusionRead::Displacement(..)
                 | ExclusionRead::Swapped(..)
                 | ExclusionRead::Attempted(..) => false,
             },
@@ -435,10 +560,21 @@ impl ModelFamily for ExclusionSpec {
                 "observable `{}` depends on the path, not only on the arrangement at one time",
                 o.name
             )),
-            ExclusionRead::Current(..) | ExclusionRead::Swapped(..) if ring => Some(format!(
-                "observable `{}` on a ring depends on the path, not only on the arrangement",
+            ExclusionRead::SwapTime(..) | ExclusionRead::AttemptTime(..) => Some(format!(
+                "observable `{}` is a first time along the path; exact laws cover read-outs at one time",
                 o.name
             )),
+            ExclusionRead::Current(..)
+            | ExclusionRead::Swapped(..)
+            | ExclusionRead::Overtaken { .. }
+            | ExclusionRead::Displacement(..)
+                if ring =>
+            {
+                Some(format!(
+                    "observable `{}` on a ring depends on the path, not only on the arrangement",
+                    o.name
+                ))
+            }
             ExclusionRead::Window(..)
             | ExclusionRead::Position(..)
             | ExclusionRead::Arrangement(_)
@@ -446,7 +582,18 @@ impl ModelFamily for ExclusionSpec {
             | ExclusionRead::Configuration(_)
             | ExclusionRead::Current(..)
             | ExclusionRead::Height(..)
-            | ExclusionRead::Swapped(..) => None,
+            | ExclusionRead::Swapped(..)
+            | ExclusionRead::Overtaken { .. }
+            | ExclusionRead::Displacement(..) => None,
+        }
+    }
+
+    fn censored_at(&self, read: &ReadSpec) -> Option<f64> {
+        match read {
+            ReadSpec::Exclusion(
+                ExclusionRead::SwapTime(_, _, t) | ExclusionRead::AttemptTime(_, _, t),
+            ) => Some(self.times[*t]),
+            ReadSpec::Exclusion(_) | ReadSpec::SixVertex(_) | ReadSpec::Combined(_) => None,
         }
     }
 

@@ -263,6 +263,10 @@ pub trait ModelFamily {
         observables: Vec<&'a ObservableSpec>,
     ) -> Result<Box<dyn UnitSampler + 'a>, String>;
 
+    /// The time at which read-out `read` is censored (a first time that had not come yet reads as
+    /// this time), if it is a censored hitting time.
+    fn censored_at(&self, read: &ReadSpec) -> Option<f64>;
+
     /// Why observable `o` has no exact law here (`None`: it has one).
     fn exact_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String>;
 

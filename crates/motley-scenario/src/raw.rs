@@ -337,6 +337,15 @@ pub enum RawRead {
     ExitPlace(i64),
     /// Exclusion: the class on each site at `time`, holes 0 (any initial data on a segment or ring).
     Configuration(RawTimeRead),
+    /// Exclusion: the first time two classes are in the opposite order (on a ring: one has
+    /// overtaken the other), censored at `time`.
+    SwapTime(RawPairRead),
+    /// Exclusion: the first time one of two classes attempts a jump onto the other, censored at
+    /// `time`.
+    AttemptTime(RawPairRead),
+    /// Exclusion: the net number of steps a class has moved by `time` (right +1; on a ring not
+    /// reduced mod n).
+    Displacement(RawPositionRead),
     /// Exclusion: sites `from..=to` at `time`.
     Window(RawWindowRead),
     /// Exclusion: the site of a class at `time`.
@@ -364,7 +373,11 @@ impl RawRead {
             | RawRead::InverseArrangement(t)
             | RawRead::Configuration(t) => Some(t.time),
             RawRead::Current(c) => Some(c.time),
-            RawRead::Swapped(p) | RawRead::Attempted(p) => Some(p.time),
+            RawRead::Swapped(p)
+            | RawRead::Attempted(p)
+            | RawRead::SwapTime(p)
+            | RawRead::AttemptTime(p) => Some(p.time),
+            RawRead::Displacement(p) => Some(p.time),
             RawRead::Top(_)
             | RawRead::Right(_)
             | RawRead::Row(_)
@@ -387,6 +400,9 @@ impl RawRead {
             RawRead::ExitPermutation(_) => "exit-permutation",
             RawRead::ExitPlace(_) => "exit-place",
             RawRead::Configuration(_) => "configuration",
+            RawRead::SwapTime(_) => "swap-time",
+            RawRead::AttemptTime(_) => "attempt-time",
+            RawRead::Displacement(_) => "displacement",
             RawRead::Window(_) => "window",
             RawRead::Position(_) => "position",
             RawRead::Arrangement(_) => "arrangement",

@@ -288,6 +288,23 @@ pub struct Estimates {
     /// integers (every outcome, up to [`LAW_ROW_CAP`] rows).
     #[serde(default, skip_serializing_if = "Vec::is_empty")]
     pub laws: Vec<FullLaw>,
+    /// Hitting times read by the claim: how many samples were censored at the horizon.
+    #[serde(default, skip_serializing_if = "Vec::is_empty")]
+    pub censoring: Vec<Censoring>,
+}
+
+/// Censoring of a first time: samples in which the event had not come by the read-out time, whose
+/// value is that time (after the observable's shift, scale and base).
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Censoring {
+    /// The observable's name.
+    pub observable: String,
+    /// The horizon as the observable's value.
+    pub at: f64,
+    /// Samples censored.
+    pub censored: u64,
+    /// Samples in all.
+    pub samples: u64,
 }
 
 /// Most rows kept of one full law; a larger law is cut (the first rows in value order) and says so.

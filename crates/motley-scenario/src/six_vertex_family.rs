@@ -3,7 +3,7 @@
 
 use motley_colorblind::Color;
 use motley_reference::{SixVertexQMoments, SixVertexStep};
-use motley_sixvertex::{exact_law, ratio, Outcome, Readout};
+use motley_sixvertex::{exact_law_with_heights, ratio, HeightQuery, Outcome, Readout};
 
 use crate::error::ScenarioError;
 use crate::family::{
@@ -92,12 +92,13 @@ impl SixVertexView for Readout {
     }
 }
 
-impl SixVertexView for Outcome {
+/// One outcome of the exact law: the exits, and the values of the height queries asked for.
+impl SixVertexView for (Outcome, Vec<u64>) {
     fn top(&self) -> &[Color] {
-        &self.top
+        &self.0.top
     }
     fn right(&self) -> &[Color] {
-        &self.right
+        &self.0.right
     }
     fn row(&self, _: usize) -> Option<&[Color]> {
         None
@@ -105,9 +106,37 @@ impl SixVertexView for Outcome {
     fn column(&self, _: usize) -> Option<&[Color]> {
         None
     }
-    fn height(&self, _: usize) -> Option<u64> {
-        None
+    fn height(&self, slot: usize) -> Option<u64> {
+        self.1.get(slot).copied()
     }
+}
+
+/// The height queries of `observables` (their order is the slot order) and each observable's slot.
+pub(crate) fn height_queries(
+    observables: &[&ObservableSpec],
+) -> (Vec<HeightQuery>, Vec<Option<usize>>) {
+    let mut queries = Vec::new();
+    let slots = observables
+        .iter()
+        .map(|o| match *read_of(o) {
+            SixVertexRead::Height(a, b) => {
+                queries.push(HeightQuery {
+                    a,
+                    b,
+                    threshold: o.threshold.unwrap_or(1).max(1),
+                });
+                Some(queries.len() - 1)
+            }
+            SixVertexRead::Top(_)
+            | SixVertexRead::Right(_)
+            | SixVertexRead::Row(..)
+            | SixVertexRead::Column(..)
+            | SixVertexRead::ExitColumn(_)
+            | SixVertexRead::ExitPermutation(_)
+            | SixVertexRead::ExitPlace(_) => None,
+        })
+        .collect();
+    (queries, slots)
 }
 
 /// The six-vertex read-out of an observable (validation resolved it into this family's own).
@@ -201,16 +230,19 @@ fn exit_permutation(
     }
 }
 
-/// The values of `observables` in one outcome of the exact law.
+/// The values of `observables` (height query `slots[k]` for observable `k`) in one outcome of the
+/// exact law.
 fn read_all(
     model: &ModelSpec,
     observables: &[&ObservableSpec],
-    out: &Outcome,
+    slots: &[Option<usize>],
+    out: &(Outcome, Vec<u64>),
     scratch: &mut ValueBuffers,
 ) -> Vec<ValueKey> {
     observables
         .iter()
-        .map(|o| read(model, o, out, None, scratch).key())
+        .zip(slots)
+        .map(|(o, &slot)| read(model, o, out, slot, scratch).key())
         .collect()
 }
 
@@ -323,7 +355,10 @@ impl ModelFamily for SixVertexSpec {
             | RawRead::Current(_)
             | RawRead::Swapped(_)
             | RawRead::Attempted(_)
-            | RawRead::Configuration(_) => return Err(cx.wrong_family(self, raw)),
+            | RawRead::Configuration(_)
+            | RawRead::SwapTime(_)
+            | RawRead::AttemptTime(_)
+            | RawRead::Displacement(_) => return Err(cx.wrong_family(self, raw)),
         };
         Ok((ReadSpec::SixVertex(read), kind))
     }
@@ -382,14 +417,17 @@ impl ModelFamily for SixVertexSpec {
             | SixVertexRead::Right(_)
             | SixVertexRead::ExitColumn(_)
             | SixVertexRead::ExitPermutation(_)
-            | SixVertexRead::ExitPlace(_) => None,
-            SixVertexRead::Row(..) | SixVertexRead::Column(..) | SixVertexRead::Height(..) => {
-                Some(format!(
-                    "observable `{}` reads inside the rectangle; exact laws cover the top and right exits",
-                    o.name
-                ))
-            }
+            | SixVertexRead::ExitPlace(_)
+            | SixVertexRead::Height(..) => None,
+            SixVertexRead::Row(..) | SixVertexRead::Column(..) => Some(format!(
+                "observable `{}` reads a row or column of edges inside the rectangle; exact laws cover the exits and heights",
+                o.name
+            )),
         }
+    }
+
+    fn censored_at(&self, _: &ReadSpec) -> Option<f64> {
+        None
     }
 
     fn joint_obstacle(&self, _: &ModelSpec, _: &[&ObservableSpec]) -> Option<String> {
@@ -402,12 +440,13 @@ impl ModelFamily for SixVertexSpec {
         observables: &[&ObservableSpec],
     ) -> Result<JointLaw, String> {
         let engine = build(self)?;
-        let law = exact_law(self.b1.value, self.b2.value, engine.boundary())
+        let (queries, slots) = height_queries(observables);
+        let law = exact_law_with_heights(self.b1.value, self.b2.value, engine.boundary(), &queries)
             .map_err(|e| e.to_string())?;
         let mut scratch = ValueBuffers::default();
         let mut cells = std::collections::BTreeMap::new();
         for (out, p) in law.entries() {
-            let key = read_all(model, observables, out, &mut scratch);
+            let key = read_all(model, observables, &slots, out, &mut scratch);
             *cells.entry(key).or_insert(0.0) += *p;
         }
         Ok(JointLaw {
@@ -425,9 +464,11 @@ impl ModelFamily for SixVertexSpec {
             return None;
         };
         let engine = build(self).ok()?;
-        let law = exact_law(ratio(n1, d1), ratio(n2, d2), engine.boundary()).ok()?;
+        let (queries, slots) = height_queries(observables);
+        let law = exact_law_with_heights(ratio(n1, d1), ratio(n2, d2), engine.boundary(), &queries)
+            .ok()?;
         let mut scratch = ValueBuffers::default();
-        Some(law.map(|out| read_all(model, observables, out, &mut scratch)))
+        Some(law.map(|out| read_all(model, observables, &slots, out, &mut scratch)))
     }
 
     fn cost_per_sample(&self) -> (f64, f64) {

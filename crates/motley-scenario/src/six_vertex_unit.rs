@@ -1,13 +1,11 @@
 //! The six-vertex model behind a sampling unit: building the engine from the validated spec and
 //! reading every observable of the unit from one sample.
 
-use motley_sixvertex::{
-    Boundary, ColorRule, HeightQuery, Model, Readout, ReadoutSpec, Side, SixVertexError,
-};
+use motley_sixvertex::{Boundary, ColorRule, Model, Readout, ReadoutSpec, Side, SixVertexError};
 
 use crate::family::{UnitSampler, Value, ValueBuffers};
 use crate::scenario::{BoundarySpec, ModelSpec, ObservableSpec, SixVertexRead, SixVertexSpec};
-use crate::six_vertex_family::{read, read_of};
+use crate::six_vertex_family::{height_queries, read, read_of};
 
 /// Engine side of a [`BoundarySpec`].
 pub(crate) fn side(b: &BoundarySpec) -> Result<Side, String> {
@@ -69,27 +67,19 @@ impl<'a> SixVertexUnit<'a> {
             configuration: picture,
             ..ReadoutSpec::default()
         };
-        let mut height_slot = Vec::new();
+        let (heights, height_slot) = height_queries(&observables);
+        rs.heights = heights;
         for o in &observables {
-            let mut slot = None;
             match *read_of(o) {
                 SixVertexRead::Row(y, _) => rs.horizontal_lines.push(y),
                 SixVertexRead::Column(x, _) => rs.vertical_lines.push(x),
-                SixVertexRead::Height(a, b) => {
-                    slot = Some(rs.heights.len());
-                    rs.heights.push(HeightQuery {
-                        a,
-                        b,
-                        threshold: o.threshold.unwrap_or(1).max(1),
-                    });
-                }
-                SixVertexRead::Top(_)
+                SixVertexRead::Height(..)
+                | SixVertexRead::Top(_)
                 | SixVertexRead::Right(_)
                 | SixVertexRead::ExitColumn(_)
                 | SixVertexRead::ExitPermutation(_)
                 | SixVertexRead::ExitPlace(_) => {}
             }
-            height_slot.push(slot);
         }
         let readout = model.readout(rs).map_err(|e| e.to_string())?;
         Ok(SixVertexUnit {
