@@ -37,6 +37,13 @@ fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
         .collect()
 }
 
+/// `(claim id, rejected, decided by)` rows as `verdicts` returns them.
+fn owned(rows: &[(&str, bool, &str)]) -> Vec<(String, bool, String)> {
+    rows.iter()
+        .map(|(id, r, by)| (id.to_string(), *r, by.to_string()))
+        .collect()
+}
+
 #[test]
 fn rainbow_symmetry_holds_exactly_and_by_monte_carlo() {
     let v = verdicts("rainbow-symmetry", &[]);
@@ -86,11 +93,7 @@ fn tables_and_means_decide_both_ways() {
         ("exact-mean", false, "exact"),
         ("monte-carlo-mean", false, "monte-carlo"),
     ];
-    let expected: Vec<(String, bool, String)> = expected
-        .iter()
-        .map(|(id, r, by)| (id.to_string(), *r, by.to_string()))
-        .collect();
-    assert_eq!(v, expected);
+    assert_eq!(v, owned(&expected));
 }
 
 /// A law computed in rationals against a table of fractions: the total variation is exactly 0.
@@ -171,11 +174,7 @@ fn exit_permutations_of_a_rectangle_and_its_transpose() {
         ("monte-carlo-4x3", false, "monte-carlo"),
         ("monte-carlo-4x3-b1-off", true, "monte-carlo"),
     ];
-    let expected: Vec<(String, bool, String)> = expected
-        .iter()
-        .map(|(id, r, by)| (id.to_string(), *r, by.to_string()))
-        .collect();
-    assert_eq!(v, expected);
+    assert_eq!(v, owned(&expected));
 }
 
 /// E q^H(x, y) under the step boundary by the four-point recursion (q = b1/b2), computed here
@@ -240,11 +239,7 @@ fn shift_invariance_holds_exactly_and_a_wrong_shift_is_rejected() {
         ("exact-4x4-upper-point-moved", true, "exact"),
         ("monte-carlo-12x10", false, "monte-carlo"),
     ];
-    let expected: Vec<(String, bool, String)> = expected
-        .iter()
-        .map(|(id, r, by)| (id.to_string(), *r, by.to_string()))
-        .collect();
-    assert_eq!(v, expected);
+    assert_eq!(v, owned(&expected));
 }
 
 /// The swap time is a number censored at the horizon: the report counts the censored samples,

@@ -180,6 +180,66 @@ enum ReadingKey<'a> {
 }
 
 impl Reading {
+    /// The colors of a window reading.
+    pub fn colors(&self) -> Option<&[Color]> {
+        match self {
+            Reading::Colors(c) => Some(c),
+            Reading::Positions(_)
+            | Reading::Classes(_)
+            | Reading::Count(_)
+            | Reading::Flag(_)
+            | Reading::Time { .. } => None,
+        }
+    }
+
+    /// The sites of a positions reading.
+    pub fn positions(&self) -> Option<&[i64]> {
+        match self {
+            Reading::Positions(p) => Some(p),
+            Reading::Colors(_)
+            | Reading::Classes(_)
+            | Reading::Count(_)
+            | Reading::Flag(_)
+            | Reading::Time { .. } => None,
+        }
+    }
+
+    /// The value of a count (current, height, displacement).
+    pub fn count(&self) -> Option<i64> {
+        match self {
+            Reading::Count(v) => Some(*v),
+            Reading::Colors(_)
+            | Reading::Positions(_)
+            | Reading::Classes(_)
+            | Reading::Flag(_)
+            | Reading::Time { .. } => None,
+        }
+    }
+
+    /// The value of a yes/no reading.
+    pub fn flag(&self) -> Option<bool> {
+        match self {
+            Reading::Flag(f) => Some(*f),
+            Reading::Colors(_)
+            | Reading::Positions(_)
+            | Reading::Classes(_)
+            | Reading::Count(_)
+            | Reading::Time { .. } => None,
+        }
+    }
+
+    /// The time of a first-time reading (the read-out time when censored).
+    pub fn time(&self) -> Option<f64> {
+        match self {
+            Reading::Time { time, .. } => Some(*time),
+            Reading::Colors(_)
+            | Reading::Positions(_)
+            | Reading::Classes(_)
+            | Reading::Count(_)
+            | Reading::Flag(_) => None,
+        }
+    }
+
     fn key(&self) -> ReadingKey<'_> {
         match self {
             Reading::Colors(c) => ReadingKey::Colors(c),

@@ -147,43 +147,13 @@ pub(crate) fn read<'s>(
     scratch: &'s mut ValueBuffers,
 ) -> Value<'s> {
     let number = |v: f64| Value::Number(o.number(v));
-    let reading = readings.get(first);
     // The engine answers each read-out with the reading it asked for; another one reads as empty.
-    let colors = || match reading {
-        Some(Reading::Colors(c)) => c.as_slice(),
-        Some(
-            Reading::Positions(_)
-            | Reading::Classes(_)
-            | Reading::Count(_)
-            | Reading::Flag(_)
-            | Reading::Time { .. },
-        )
-        | None => &[],
-    };
-    let count = || match reading {
-        Some(Reading::Count(v)) => *v as f64,
-        Some(
-            Reading::Colors(_)
-            | Reading::Positions(_)
-            | Reading::Classes(_)
-            | Reading::Flag(_)
-            | Reading::Time { .. },
-        )
-        | None => 0.0,
-    };
-    let flag = |k: usize| matches!(readings.get(first + k), Some(Reading::Flag(true)));
+    let at = |k: usize| readings.get(first + k);
+    let colors = || at(0).and_then(Reading::colors).unwrap_or(&[]);
+    let count = |k: usize| at(k).and_then(Reading::count).unwrap_or(0);
+    let flag = |k: usize| at(k).and_then(Reading::flag).unwrap_or(false);
     // A first time, censored at the read-out time when the event had not come yet.
-    let time = |k: usize| match readings.get(first + k) {
-        Some(Reading::Time { time, .. }) => *time,
-        Some(
-            Reading::Colors(_)
-            | Reading::Positions(_)
-            | Reading::Classes(_)
-            | Reading::Count(_)
-            | Reading::Flag(_),
-        )
-        | None => 0.0,
-    };
+    let time = |k: usize| at(k).and_then(Reading::time).unwrap_or(0.0);
     match *read_of(o) {
         ExclusionRead::Window(_, _, _, how) => {
             let universe = match o.kind {
@@ -197,17 +167,12 @@ pub(crate) fn read<'s>(
             set_elements(colors(), how, o.threshold, o.map, universe, model, s);
             Value::Set(s)
         }
-        ExclusionRead::Position(..) => number(match reading {
-            Some(Reading::Positions(p)) => p.first().copied().unwrap_or(0) as f64,
-            Some(
-                Reading::Colors(_)
-                | Reading::Classes(_)
-                | Reading::Count(_)
-                | Reading::Flag(_)
-                | Reading::Time { .. },
-            )
-            | None => 0.0,
-        }),
+        ExclusionRead::Position(..) => number(
+            at(0)
+                .and_then(Reading::positions)
+                .and_then(|p| p.first().copied())
+                .unwrap_or(0) as f64,
+        ),
         ExclusionRead::Arrangement(_) | ExclusionRead::Configuration(_) => {
             let seq = &mut scratch.sequence;
             seq.clear();
@@ -227,27 +192,16 @@ pub(crate) fn read<'s>(
             }
             Value::Sequence(seq)
         }
-        ExclusionRead::Current(..) | ExclusionRead::Height(..) => number(count()),
+        ExclusionRead::Current(..) | ExclusionRead::Height(..) => number(count(0) as f64),
         ExclusionRead::Swapped(..) => Value::Event(flag(0)),
         ExclusionRead::Overtaken { start, n, .. } => {
-            let d = |k: usize| match readings.get(first + k) {
-                Some(Reading::Count(v)) => *v,
-                Some(
-                    Reading::Colors(_)
-                    | Reading::Positions(_)
-                    | Reading::Classes(_)
-                    | Reading::Flag(_)
-                    | Reading::Time { .. },
-                )
-                | None => 0,
-            };
             let n = n as i64;
-            let now = start + d(0) - d(1);
+            let now = start + count(0) - count(1);
             Value::Event(now.div_euclid(n) != start.div_euclid(n))
         }
         ExclusionRead::SwapTime(..) => number(time(0)),
         ExclusionRead::AttemptTime(..) => number(time(0).min(time(1))),
-        ExclusionRead::Displacement(..) => number(count()),
+        ExclusionRead::Displacement(..) => number(count(0) as f64),
         ExclusionRead::Attempted(..) => Value::Event(flag(0) || flag(1)),
     }
 }

@@ -331,15 +331,20 @@ pub fn read_by_family(s: &Scenario, o: usize) -> Vec<usize> {
     }
 }
 
-/// Why observable `o` of `s` has no exact law here (`None`: it has one); a combination has one
-/// when all its components have.
-pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
-    let m = &s.models[s.observables[o].model];
-    let family = m.kind.family();
-    let parts: Vec<&ObservableSpec> = read_by_family(s, o)
+/// The model of observable `o` and the observables its family reads for it.
+fn family_parts(s: &Scenario, o: usize) -> (&ModelSpec, Vec<&ObservableSpec>) {
+    let parts = read_by_family(s, o)
         .into_iter()
         .map(|c| &s.observables[c])
         .collect();
+    (&s.models[s.observables[o].model], parts)
+}
+
+/// Why observable `o` of `s` has no exact law here (`None`: it has one); a combination has one
+/// when all its components have.
+pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
+    let (m, parts) = family_parts(s, o);
+    let family = m.kind.family();
     parts
         .iter()
         .find_map(|obs| family.exact_obstacle(m, obs))
@@ -353,11 +358,7 @@ pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
 /// The family's message when the engine cannot compute it.
 pub fn exact_law(s: &Scenario, o: usize) -> Result<ObservableLaw, String> {
     let obs = &s.observables[o];
-    let m = &s.models[obs.model];
-    let parts: Vec<&ObservableSpec> = read_by_family(s, o)
-        .into_iter()
-        .map(|c| &s.observables[c])
-        .collect();
+    let (m, parts) = family_parts(s, o);
     let joint = m.kind.family().exact_joint_law(m, &parts)?;
     let mut buf = Vec::new();
     Ok(ObservableLaw::collect(
@@ -372,11 +373,7 @@ pub fn exact_law(s: &Scenario, o: usize) -> Result<ObservableLaw, String> {
 /// The exact law of observable `o` of `s` in rationals, when its family computes one.
 pub fn rational_law(s: &Scenario, o: usize) -> Option<RationalLaw> {
     let obs = &s.observables[o];
-    let m = &s.models[obs.model];
-    let parts: Vec<&ObservableSpec> = read_by_family(s, o)
-        .into_iter()
-        .map(|c| &s.observables[c])
-        .collect();
+    let (m, parts) = family_parts(s, o);
     let joint = m.kind.family().rational_joint_law(m, &parts)?;
     let mut buf = Vec::new();
     Some(joint.map(|v| combined_key(obs, v.clone(), &mut buf)))
