@@ -107,6 +107,7 @@ fn points(w: usize, h: usize) -> Vec<Point> {
 }
 
 #[test]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn shift_of_the_lower_point_of_a_pair_is_exact() {
     for (w, h) in [(4, 4), (5, 4), (4, 5), (5, 5)] {
         let ws = weights();
@@ -141,6 +142,7 @@ fn shift_of_the_lower_point_of_a_pair_is_exact() {
 }
 
 #[test]
+#[ignore = "slow tier: scripts/test-slow.sh"]
 fn shift_of_the_tail_of_a_three_point_chain_is_exact() {
     let ws = weights();
     for (w, h, b) in [(5, 5, &ws[0]), (6, 4, &ws[1])] {
