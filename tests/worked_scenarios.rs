@@ -6,7 +6,12 @@
 
 use crate::common::*;
 
-fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
+/// Runs worked scenario `name` with `extra` arguments into a temporary folder; returns the folder
+/// (kept alive by the guard), the report's path and its comparable `result.json`.
+fn run_report(
+    name: &str,
+    extra: &[&str],
+) -> (tempfile::TempDir, std::path::PathBuf, serde_json::Value) {
     let dir = tempfile::tempdir().unwrap();
     let out = dir.path().join(name);
     let path = scenario(name);
@@ -23,6 +28,18 @@ fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
         assert!(out.join(f).is_file(), "{name}: {f} missing");
     }
     let v = comparable(&out);
+    (dir, out, v)
+}
+
+/// `(claim id, rejected, decided by)` rows as `verdicts` returns them.
+fn owned(rows: &[(&str, bool, &str)]) -> Vec<(String, bool, String)> {
+    rows.iter()
+        .map(|(id, r, by)| (id.to_string(), *r, by.to_string()))
+        .collect()
+}
+
+fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
+    let (_dir, _, v) = run_report(name, extra);
     v["claims"]
         .as_array()
         .unwrap()
@@ -34,13 +51,6 @@ fn verdicts(name: &str, extra: &[&str]) -> Vec<(String, bool, String)> {
                 c["decided_by"].as_str().unwrap().to_string(),
             )
         })
-        .collect()
-}
-
-/// `(claim id, rejected, decided by)` rows as `verdicts` returns them.
-fn owned(rows: &[(&str, bool, &str)]) -> Vec<(String, bool, String)> {
-    rows.iter()
-        .map(|(id, r, by)| (id.to_string(), *r, by.to_string()))
         .collect()
 }
 
@@ -99,19 +109,7 @@ fn tables_and_means_decide_both_ways() {
 /// A law computed in rationals against a table of fractions: the total variation is exactly 0.
 #[test]
 fn a_table_of_fractions_is_matched_exactly() {
-    let dir = tempfile::tempdir().unwrap();
-    let out = dir.path().join("t");
-    let path = scenario("strongest-exit-table");
-    run_ok(&[
-        "run",
-        path.to_str().unwrap(),
-        "--out",
-        out.to_str().unwrap(),
-        "--samples",
-        "2000",
-        "--quiet",
-    ]);
-    let v = comparable(&out);
+    let (_dir, out, v) = run_report("strongest-exit-table", &["--samples", "2000"]);
     let exact = &v["claims"][0]["exact"];
     assert_eq!(exact["measure"].as_str(), Some("total-variation"));
     assert_eq!(exact["discrepancy"].as_f64(), Some(0.0));
@@ -201,17 +199,7 @@ fn q_moment(b1: f64, b2: f64, x: usize, y: usize) -> f64 {
 
 #[test]
 fn q_moments_follow_the_four_point_recursion() {
-    let dir = tempfile::tempdir().unwrap();
-    let out = dir.path().join("q");
-    let path = scenario("q-moments");
-    run_ok(&[
-        "run",
-        path.to_str().unwrap(),
-        "--out",
-        out.to_str().unwrap(),
-        "--quiet",
-    ]);
-    let v = comparable(&out);
+    let (_dir, _, v) = run_report("q-moments", &[]);
     let claims = v["claims"].as_array().unwrap();
     for (c, (x, y)) in claims.iter().zip([(50, 75), (75, 66), (90, 100)]) {
         let stated = c["stated"]["value"].as_f64().unwrap();
@@ -247,19 +235,7 @@ fn shift_invariance_holds_exactly_and_a_wrong_shift_is_rejected() {
 /// TASEP), checked on an independent replica at α = 0.01 with a fixed seed.
 #[test]
 fn swap_time_is_censored_and_consistent_with_the_swap_event() {
-    let dir = tempfile::tempdir().unwrap();
-    let out = dir.path().join("s");
-    let path = scenario("swap-time");
-    run_ok(&[
-        "run",
-        path.to_str().unwrap(),
-        "--out",
-        out.to_str().unwrap(),
-        "--samples",
-        "4000",
-        "--quiet",
-    ]);
-    let v = comparable(&out);
+    let (_dir, out, v) = run_report("swap-time", &["--samples", "4000"]);
     let c = &v["claims"][0]["estimates"]["censoring"][0];
     assert_eq!(c["observable"], "swap-time");
     assert_eq!(c["at"].as_f64(), Some(40.0));

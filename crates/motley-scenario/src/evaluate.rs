@@ -792,32 +792,8 @@ pub fn evaluate(
             }
             _ => None,
         },
-        ClaimKind::Describe(_, _, Some(limit)) => match first {
-            Accumulator::Scalar(x) if !x.values.is_empty() => {
-                let m = moments("", &x.values);
-                Some(Stated {
-                    role: StatedRole::Limit,
-                    value: *limit,
-                    estimate: m.mean,
-                    difference: m.mean - limit,
-                    half_width: z * m.sd / (m.count as f64).sqrt(),
-                })
-            }
-            _ => None,
-        },
-        ClaimKind::Mean(_, Some(m0)) => match first {
-            Accumulator::Scalar(x) if !x.values.is_empty() => {
-                let m = moments("", &x.values);
-                Some(Stated {
-                    role: StatedRole::Equals,
-                    value: *m0,
-                    estimate: m.mean,
-                    difference: m.mean - m0,
-                    half_width: z * m.sd / (m.count as f64).sqrt(),
-                })
-            }
-            _ => None,
-        },
+        ClaimKind::Describe(_, _, Some(limit)) => stated_mean(StatedRole::Limit, *limit, first, z),
+        ClaimKind::Mean(_, Some(m0)) => stated_mean(StatedRole::Equals, *m0, first, z),
         ClaimKind::Probability(_, None)
         | ClaimKind::Describe(_, _, None)
         | ClaimKind::Mean(_, None)
@@ -842,6 +818,24 @@ pub fn evaluate(
         estimates: est,
         stated,
     }
+}
+
+/// A value stated beside the mean of a number, with the normal half-width `z·sd/√n`.
+fn stated_mean(role: StatedRole, value: f64, acc: &Accumulator, z: f64) -> Option<Stated> {
+    let Accumulator::Scalar(x) = acc else {
+        return None;
+    };
+    if x.values.is_empty() {
+        return None;
+    }
+    let m = moments("", &x.values);
+    Some(Stated {
+        role,
+        value,
+        estimate: m.mean,
+        difference: m.mean - value,
+        half_width: z * m.sd / (m.count as f64).sqrt(),
+    })
 }
 
 fn verdict(s: &Scenario, c: &ClaimSpec, rejected: bool, effect: &Option<Effect>) -> String {

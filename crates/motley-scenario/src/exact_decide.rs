@@ -72,6 +72,19 @@ fn scalar_cells(cells: &[(ValueKey, f64)]) -> Vec<(f64, f64)> {
         .collect()
 }
 
+/// The exact mean and standard deviation of a number observable's law.
+fn exact_moments(label: String, l: &ObservableLaw) -> Moments {
+    let xs = scalar_cells(&l.cells);
+    let mean: f64 = xs.iter().map(|(x, p)| x * p).sum();
+    let var: f64 = xs.iter().map(|(x, p)| (x - mean) * (x - mean) * p).sum();
+    Moments {
+        label,
+        count: 0,
+        mean,
+        sd: var.sqrt(),
+    }
+}
+
 /// The exact probability of an event observable (outcome `[1]`), recorded in `est` as a
 /// degenerate interval; returns it.
 fn exact_event(l: &ObservableLaw, label: String, est: &mut Estimates) -> f64 {
@@ -217,16 +230,13 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         ClaimKind::Mean(a, equals) => {
             let l = observable_law(s, *a)?;
             est.laws = full_laws(s, &[(*a, &l)]);
-            let xs = scalar_cells(&l.cells);
-            let mean: f64 = xs.iter().map(|(x, p)| x * p).sum();
-            let var: f64 = xs.iter().map(|(x, p)| (x - mean) * (x - mean) * p).sum();
-            est.moments.push(Moments {
-                label: name(*a),
-                count: 0,
-                mean,
-                sd: var.sqrt(),
-            });
-            let scale = xs.iter().map(|(x, _)| x.abs()).fold(0.0, f64::max);
+            let m = exact_moments(name(*a), &l);
+            let mean = m.mean;
+            est.moments.push(m);
+            let scale = scalar_cells(&l.cells)
+                .iter()
+                .map(|(x, _)| x.abs())
+                .fold(0.0, f64::max);
             (
                 ClaimKindName::Mean,
                 vec![name(*a)],
@@ -264,15 +274,7 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             let kind = s.observables[*a].kind;
             est.top_outcomes.push(top(&l.cells));
             if matches!(kind, ValueKind::Scalar { .. }) {
-                let xs = scalar_cells(&l.cells);
-                let mean: f64 = xs.iter().map(|(x, p)| x * p).sum();
-                let var: f64 = xs.iter().map(|(x, p)| (x - mean) * (x - mean) * p).sum();
-                est.moments.push(Moments {
-                    label: name(*a),
-                    count: 0,
-                    mean,
-                    sd: var.sqrt(),
-                });
+                est.moments.push(exact_moments(name(*a), &l));
             }
             if kind == ValueKind::Event {
                 exact_event(&l, name(*a), &mut est);
