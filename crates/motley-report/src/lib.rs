@@ -21,8 +21,8 @@
 //! ```
 //! use motley_report::{write_report, ReportExtras};
 //! use motley_scenario::result::{
-//!     ClaimKindName, ClaimResult, DecidedBy, Estimates, Interval, RunResult, ScenarioInfo,
-//!     TestResult, Timing, SCHEMA,
+//!     ClaimKindName, ClaimResult, DecidedBy, Decision, ErrorControl, Estimates, Interval,
+//!     RunResult, ScenarioInfo, TestResult, TestRole, Timing, SCHEMA,
 //! };
 //!
 //! let claim = ClaimResult {
@@ -32,12 +32,17 @@
 //!     observables: vec!["heads".into()],
 //!     decided_by: DecidedBy::MonteCarlo,
 //!     rejected: false,
+//!     decision: Decision::NotRejected,
+//!     level: 0.01,
+//!     tolerance: None,
+//!     look: None,
 //!     verdict: "No evidence against probability 1/2.".into(),
 //!     samples: 1000,
 //!     tests: vec![TestResult {
 //!         name: "binomial test".into(),
 //!         statistic: 507.0,
 //!         dof: None,
+//!         role: TestRole::Deciding,
 //!         p_value: 0.68,
 //!         adjusted_p_value: 0.68,
 //!         rejected: false,
@@ -73,9 +78,11 @@
 //!         samples: 1000,
 //!         alpha: 0.01,
 //!         power: 0.8,
+//!         error_control: ErrorControl::PerClaim,
 //!     },
 //!     timing: Timing { wall_seconds: 0.1, threads: 1, samples_per_second: 1e4, shards: 1 },
 //!     claims: vec![claim],
+//!     sequential: None,
 //! };
 //! let tmp = tempfile::tempdir()?;
 //! let dir = tmp.path().join("reports").join("coin");

@@ -11,7 +11,10 @@
 
 use std::fmt::Write as _;
 
-use motley_scenario::result::{ClaimResult, DecidedBy, ExactResult, RunResult, StatedRole};
+use motley_scenario::result::{
+    ClaimResult, DecidedBy, Decision, ErrorControl, ExactResult, RunResult, Sequential, StatedRole,
+    StopReason, TestRole,
+};
 
 use crate::extras::ReportExtras;
 use crate::figures::Figure;
@@ -74,13 +77,18 @@ pub fn verdict_line(claim: &ClaimResult, alpha: f64) -> String {
             ),
         };
     }
-    if claim.tests.is_empty() && !claim.rejected {
-        return "estimated (no test: nothing stated to test against)".into();
-    }
-    if claim.rejected {
-        format!("REJECTED at α = {a}")
-    } else {
-        format!("not rejected at α = {a}")
+    let _ = a;
+    let level = short(claim.level);
+    let tol = claim.tolerance.map_or(String::new(), short);
+    match claim.decision {
+        Decision::NoClaim => "estimated (no test: nothing stated to test against)".into(),
+        Decision::Rejected => format!("REJECTED at α = {level}"),
+        Decision::EqualWithin => format!("EQUAL WITHIN {tol} (not rejected at α = {level})"),
+        Decision::Undecided => {
+            format!("UNDECIDED: not rejected at α = {level}, not shown within {tol}")
+        }
+        Decision::NotRejected => format!("not rejected at α = {level}"),
+        Decision::HoldsExactly => "holds exactly".into(),
     }
 }
 
@@ -97,14 +105,13 @@ fn measure_words(ex: &ExactResult) -> &'static str {
     ex.measure.map_or("discrepancy", |m| m.words())
 }
 
-/// The smallest Holm-adjusted p-value of a claim's tests, if it has tests.
-fn smallest_adjusted(claim: &ClaimResult) -> Option<f64> {
+/// The p-value of a claim's deciding test as compared with its level, if it has one.
+fn deciding_p(claim: &ClaimResult) -> Option<f64> {
     claim
         .tests
         .iter()
+        .find(|t| t.role == TestRole::Deciding)
         .map(|t| t.adjusted_p_value)
-        .filter(|p| !p.is_nan())
-        .reduce(f64::min)
 }
 
 /// The anchor of a claim's section.
@@ -133,17 +140,26 @@ pub(crate) fn render(
         let _ = writeln!(s, "{}\n", sc.description.trim());
     }
     let rejected = result.claims.iter().filter(|c| c.rejected).count();
+    let control = match sc.error_control {
+        ErrorControl::PerClaim => format!("α = {} per claim", short(alpha)),
+        ErrorControl::FalseDiscoveryRate => format!(
+            "false discovery rate ≤ {} across claims (Benjamini–Hochberg)",
+            short(alpha)
+        ),
+    };
     let _ = writeln!(
         s,
-        "Scenario {} · {} claim{} · {} rejected at α = {} · motley {} · schema `{}`\n",
+        "Scenario {} · {} claim{} · {} rejected · {control} · motley {} · schema `{}`\n",
         code(&sc.name),
         result.claims.len(),
         if result.claims.len() == 1 { "" } else { "s" },
         rejected,
-        short(alpha),
         result.motley_version,
         result.schema
     );
+    if let Some(q) = &result.sequential {
+        sequence_note(&mut s, q);
+    }
 
     overview(&mut s, result, stems);
     for (i, claim) in result.claims.iter().enumerate() {
@@ -161,6 +177,33 @@ pub(crate) fn render(
     s
 }
 
+/// Where a sequential run stopped and why.
+fn sequence_note(s: &mut String, q: &Sequential) {
+    let why = match q.stopped {
+        StopReason::AllDecided => "every claim was decided",
+        StopReason::LastLook => "the last planned look was reached",
+        StopReason::LookAsked => {
+            "only this look was asked for; the next look continues the sequence"
+        }
+    };
+    let looks: Vec<String> = q
+        .looks
+        .iter()
+        .zip(&q.levels)
+        .map(|(n, a)| format!("{n} (α {})", num(*a)))
+        .collect();
+    let _ = writeln!(
+        s,
+        "Sampled until decided: stopped at look {} of {} with {} samples per side because {why}. \
+         Planned looks (samples per side, level): {}. The levels add up to α (quadratic α-spending, \
+         union bound), so the error over all looks stays at most α.\n",
+        q.looks_taken,
+        q.looks.len(),
+        q.samples_used,
+        looks.join(", ")
+    );
+}
+
 /// The table of claims with their verdicts.
 fn overview(s: &mut String, result: &RunResult, stems: &[String]) {
     let _ = writeln!(s, "## Claims\n");
@@ -170,11 +213,11 @@ fn overview(s: &mut String, result: &RunResult, stems: &[String]) {
     }
     let _ = writeln!(
         s,
-        "| Claim | Kind | Decided by | Verdict | Smallest Holm-adjusted p | Effect (upper bound) |"
+        "| Claim | Kind | Decided by | Verdict | Deciding p | Effect (upper bound) |"
     );
     let _ = writeln!(s, "|---|---|---|---|---|---|");
     for (claim, stem) in result.claims.iter().zip(stems) {
-        let p = smallest_adjusted(claim).map_or("—".into(), p_value);
+        let p = deciding_p(claim).map_or("—".into(), p_value);
         let effect = match (&claim.exact, &claim.effect) {
             (Some(ex), _) if is_exact(claim) => {
                 format!("{} {}", measure_words(ex), num(ex.discrepancy))
@@ -249,35 +292,50 @@ fn claim_section(
         let _ = writeln!(s, "### Tests\n");
         let _ = writeln!(
             s,
-            "| Test | Statistic | Degrees of freedom | p-value | Holm-adjusted p | At α = {} | Note |",
-            short(alpha)
+            "| Test | Role | Statistic | Degrees of freedom | p-value | At α = {} | Note |",
+            short(claim.level)
         );
         let _ = writeln!(s, "|---|---|---|---|---|---|---|");
         for t in &claim.tests {
+            let (role, verdict) = match t.role {
+                TestRole::Deciding => (
+                    "deciding",
+                    if t.rejected {
+                        "**rejects**"
+                    } else {
+                        "does not reject"
+                    },
+                ),
+                TestRole::Diagnostic => ("diagnostic", "—"),
+            };
+            let p = if t.adjusted_p_value != t.p_value {
+                format!(
+                    "{} (adjusted {})",
+                    p_value(t.p_value),
+                    p_value(t.adjusted_p_value)
+                )
+            } else {
+                p_value(t.p_value)
+            };
             let _ = writeln!(
                 s,
-                "| {} | {} | {} | {} | {} | {} | {} |",
+                "| {} | {role} | {} | {} | {p} | {verdict} | {} |",
                 cell(&t.name),
                 num(t.statistic),
                 t.dof.map_or("—".into(), num),
-                p_value(t.p_value),
-                p_value(t.adjusted_p_value),
-                if t.rejected {
-                    "**rejects**"
-                } else {
-                    "does not reject"
-                },
                 cell(&t.note)
             );
         }
         let _ = writeln!(
             s,
-            "\np-values are adjusted across this claim's tests by Holm's step-down method; \
-             the claim is rejected when any adjusted p-value is below α.\n"
+            "\nThe claim is decided by its one deciding test at level α = {}; diagnostics are shown \
+             with their own p-values and do not move the verdict.\n",
+            short(claim.level)
         );
     }
 
     if let Some(e) = &claim.effect {
+        let alpha = claim.level;
         let _ = writeln!(s, "### Effect size\n");
         let _ = writeln!(
             s,
@@ -286,14 +344,41 @@ fn claim_section(
             short(result.scenario.power)
         );
         let _ = writeln!(s, "|---|---|---|---|");
+        let estimate = match (e.plug_in, e.same_law_level) {
+            (Some(plug), Some(level)) => format!(
+                "{} (plug-in {} minus its same-law level {})",
+                num(e.estimate),
+                num(plug),
+                num(level)
+            ),
+            _ => num(e.estimate),
+        };
         let _ = writeln!(
             s,
-            "| {} | {} | {} | {} |\n",
+            "| {} | {estimate} | {} | {} ({}) |\n",
             cell(&e.measure),
-            num(e.estimate),
             num(e.upper_bound),
-            num(e.detectable)
+            num(e.detectable),
+            cell(&e.detectable_measure)
         );
+        if !e.covers.is_empty() {
+            let _ = writeln!(
+                s,
+                "The power statement covers {}.\n",
+                e.covers.trim_end_matches('.')
+            );
+        }
+        if let (Some(plug), Some(level)) = (e.plug_in, e.same_law_level) {
+            if level > 0.5 * plug && level > 0.01 {
+                let _ = writeln!(
+                    s,
+                    "Most of the plug-in value is sampling noise: two samples of one law this size \
+                     would show about {} on these outcomes. The estimate subtracts it; the upper bound \
+                     holds either way.\n",
+                    num(level)
+                );
+            }
+        }
         if is_describe(claim) {
             let _ = writeln!(
                 s,
@@ -317,7 +402,7 @@ fn claim_section(
                      the {} is at most {} at {}% confidence. Smaller differences could go unseen.",
                     short(alpha),
                     short(result.scenario.power),
-                    e.measure,
+                    e.detectable_measure,
                     num(e.detectable),
                     e.measure,
                     num(e.upper_bound),

@@ -74,20 +74,23 @@ fn summary_has_overview_verdicts_and_test_table() {
     ));
     assert!(md.contains("**Verdict: REJECTED at α = 0.01.**"));
     assert!(md.contains("**Verdict: holds exactly (Kolmogorov distance 0 up to 1e-13).**"));
-    // Test table header and rows: statistic, dof, p-value, Holm-adjusted p-value.
+    // Test table header and rows: role, statistic, dof, p-value; only the deciding test rejects.
     assert!(md.contains(
-        "| Test | Statistic | Degrees of freedom | p-value | Holm-adjusted p | At α = 0.01 | Note |"
+        "| Test | Role | Statistic | Degrees of freedom | p-value | At α = 0.01 | Note |"
     ));
     assert!(md.contains(
-        "| chi-square on the joint law | 18.2 | 14 | 4.12e-1 | 8.25e-1 | does not reject | pooled cells with expected count below 5 |"
+        "| chi-square on the joint law | deciding | 18.2 | 14 | 4.12e-1 | does not reject | pooled cells with expected count below 5 |"
     ), "{md}");
     assert!(md.contains(
-        "| Kolmogorov–Smirnov on the set size | 0.0121 | — | 7.31e-1 | 7.31e-1 | does not reject |"
+        "| Kolmogorov–Smirnov on the set size | diagnostic | 0.0121 | — | 7.31e-1 | — |"
     ));
+    assert!(
+        md.contains("diagnostics are shown with their own p-values and do not move the verdict")
+    );
     // An underflowed p-value is never printed as 0.
     assert!(
         md.contains(
-            "| chi-square on the joint law | 18.2 | 14 | < 1e-300 | < 1e-300 | **rejects** |"
+            "| chi-square on the joint law | deciding | 18.2 | 14 | < 1e-300 | **rejects** |"
         ),
         "{md}"
     );
@@ -100,9 +103,12 @@ fn summary_states_effect_power_and_limits() {
     assert!(md.contains(
         "| Measure | Estimate | Upper bound (99% confidence) | Smallest detectable difference (power 0.8) |"
     ));
-    assert!(md.contains("| total variation | 0.0061 | 0.0143 | 0.0187 |"));
     assert!(md.contains(
-        "not rejected at α = 0.01 with power 0.8 against differences of total variation ≥ 0.0187"
+        "| total variation | 0.0061 (plug-in 0.0103 minus its same-law level 0.0042) | 0.0143 | 0.0187 (total variation on the 14 compared cells) |"
+    ), "{md}");
+    assert!(md.contains("The power statement covers differences between the 14 compared cells."));
+    assert!(md.contains(
+        "not rejected at α = 0.01 with power 0.8 against differences of total variation on the 14 compared cells ≥ 0.0187"
     ));
     assert!(md.contains("Monte Carlo never proves an identity."));
     assert!(md.contains("proves the identity only for the size enumerated"));

@@ -11,8 +11,8 @@ use std::collections::BTreeMap;
 use crate::estimate::{full_law_exact, show_value};
 use crate::family::{ObservableLaw, ValueKey};
 use crate::result::{
-    ClaimKindName, ClaimResult, DecidedBy, Discrepancy, Estimates, ExactResult, FullLaw, Interval,
-    Moments, Outcome, Stated, StatedRole,
+    ClaimKindName, ClaimResult, DecidedBy, Decision, Discrepancy, Estimates, ExactResult, FullLaw,
+    Interval, Moments, Outcome, Stated, StatedRole,
 };
 use crate::scenario::*;
 
@@ -338,8 +338,15 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
             | ClaimKindName::Error => "no claim: exact law shown".to_string(),
         },
         Some((m, d)) if rejected => format!(
-            "REJECTED exactly: the exact {} is {d:.6e} (tolerance {tolerance:.1e})",
-            m.words()
+            "REJECTED exactly: the exact {} is {d:.6e} (numerical tolerance {tolerance:.1e}){}",
+            m.words(),
+            match c.tolerance {
+                Some(eps) if d + error <= eps => format!(
+                    "; the laws differ, but by less than the claim's tolerance {}",
+                    crate::number_text::short(eps)
+                ),
+                _ => String::new(),
+            }
         ),
         Some((m, d)) => {
             if rational {
@@ -362,6 +369,14 @@ pub fn decide(s: &Scenario, ci: usize) -> Result<ClaimResult, String> {
         observables,
         decided_by: DecidedBy::Exact,
         rejected,
+        decision: match (discrepancy, rejected) {
+            (None, _) => Decision::NoClaim,
+            (Some(_), true) => Decision::Rejected,
+            (Some(_), false) => Decision::HoldsExactly,
+        },
+        level: s.alpha,
+        tolerance: c.tolerance,
+        look: None,
         verdict,
         samples: 0,
         tests: Vec::new(),

@@ -300,7 +300,10 @@ impl ModelFamily for ExclusionSpec {
     ) -> Result<(ReadSpec, ValueKind), ScenarioError> {
         let rp = cx.path;
         let ck = cx.checker;
-        let int = ValueKind::Scalar { integer: true };
+        let int = ValueKind::Scalar {
+            integer: true,
+            discrete: true,
+        };
         let n = self.sites().map(|n| n as i64);
         let time_index = |t: f64| -> usize {
             self.times
@@ -329,7 +332,10 @@ impl ModelFamily for ExclusionSpec {
             }
             Ok((a, b, time_index(pr.time)))
         };
-        let time_kind = ValueKind::Scalar { integer: false };
+        let time_kind = ValueKind::Scalar {
+            integer: false,
+            discrete: false,
+        };
         let (read, kind) = match raw {
             RawRead::Window(w) => {
                 let p = format!("{rp}.window");

@@ -4,7 +4,9 @@
 use crate::accumulate::Accumulator;
 use crate::partial_check::Mismatch;
 use crate::plan::Plan;
-use crate::result::{ClaimKindName, DecidedBy, RunResult, ScenarioInfo, Timing, SCHEMA};
+use crate::result::{
+    ClaimKindName, ClaimResult, DecidedBy, ErrorControl, RunResult, ScenarioInfo, Timing, SCHEMA,
+};
 use crate::run::{Partial, PARTIAL_SCHEMA};
 use crate::scenario::Scenario;
 
@@ -206,16 +208,27 @@ pub fn finish(s: &Scenario, plan: &Plan, partials: &[Partial], git_commit: &str)
     for (_, acc) in slots.iter_mut() {
         acc.canonicalize();
     }
-    let claims = (0..s.claims.len())
+    // Samples per side behind these partials: all of `samples`, or a planned look's share.
+    let used: u64 = partials
+        .iter()
+        .map(|p| p.done - p.shard.range(p.samples).0)
+        .sum();
+    let look = crate::sequential::Look::at(s, used);
+    let level = look.as_ref().map_or(s.alpha, |l| l.level);
+    let mut claims: Vec<ClaimResult> = (0..s.claims.len())
         .map(|ci| {
             if plan.exact[ci] {
                 crate::exact_decide::decide(s, ci).unwrap_or_else(|e| failed(s, ci, e))
             } else {
-                crate::evaluate::evaluate(s, ci, &slots)
+                crate::evaluate::evaluate(s, ci, &slots, level)
             }
         })
         .collect();
-    let total: u64 = plan.units.len() as u64 * s.samples;
+    if s.error_control == ErrorControl::FalseDiscoveryRate {
+        crate::sequential::control_false_discoveries(s, plan, &mut claims);
+    }
+    let sequential = look.map(|l| l.summary(s, &mut claims));
+    let total: u64 = plan.units.len() as u64 * used;
     RunResult {
         schema: SCHEMA.into(),
         motley_version: crate::VERSION.into(),
@@ -229,6 +242,7 @@ pub fn finish(s: &Scenario, plan: &Plan, partials: &[Partial], git_commit: &str)
             samples: s.samples,
             alpha: s.alpha,
             power: s.power,
+            error_control: s.error_control,
         },
         timing: Timing {
             wall_seconds: wall,
@@ -237,6 +251,7 @@ pub fn finish(s: &Scenario, plan: &Plan, partials: &[Partial], git_commit: &str)
             shards: partials.first().map_or(1, |p| p.shard.count),
         },
         claims,
+        sequential,
     }
 }
 
@@ -249,6 +264,10 @@ fn failed(s: &Scenario, ci: usize, e: String) -> crate::result::ClaimResult {
         observables: Vec::new(),
         decided_by: DecidedBy::Exact,
         rejected: false,
+        decision: crate::result::Decision::NoClaim,
+        level: s.alpha,
+        tolerance: c.tolerance,
+        look: None,
         verdict: format!("exact law unavailable: {e}"),
         samples: 0,
         tests: Vec::new(),

@@ -28,6 +28,14 @@ pub struct RawScenario {
     /// Power at which the detectable difference is quoted.
     #[serde(default)]
     pub power: Option<f64>,
+    /// How the claims' verdicts are controlled together: `per-claim` (default) or
+    /// `false-discovery-rate`.
+    #[serde(default)]
+    pub error_control: Option<RawErrorControl>,
+    /// Sample counts per side at which a sequential run looks at its claims, increasing, each at
+    /// most `samples` (`samples` itself is always the last look).
+    #[serde(default)]
+    pub looks: Option<Vec<u64>>,
     /// Exact mode for all claims: `auto`, `on` or `off`.
     #[serde(default)]
     pub exact: Option<RawExactMode>,
@@ -38,6 +46,16 @@ pub struct RawScenario {
     /// Claims, in order.
     #[serde(default)]
     pub claims: Vec<RawClaim>,
+}
+
+/// `error-control:` values.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RawErrorControl {
+    /// Each claim at `alpha` on its own.
+    PerClaim,
+    /// Benjamini–Hochberg across the scenario's tested claims.
+    FalseDiscoveryRate,
 }
 
 /// `exact:` values.
@@ -525,6 +543,10 @@ pub struct RawClaim {
     /// Exact mode for this claim (overrides the scenario's).
     #[serde(default)]
     pub exact: Option<RawExactMode>,
+    /// Confirm equality within this distance (total variation, Kolmogorov distance, probability
+    /// gap or mean gap, by the claim's kind).
+    #[serde(default)]
+    pub tolerance: Option<f64>,
     /// Two observables have the same law.
     #[serde(default)]
     pub same_law: Option<[String; 2]>,

@@ -104,7 +104,7 @@ pub(crate) fn observable(
                 ));
             }
             if v.fract() != 0.0 {
-                kind = ValueKind::Scalar { integer: false };
+                kind = kind.no_longer_integer();
             }
             v
         }
@@ -128,7 +128,7 @@ pub(crate) fn observable(
                 ));
             }
             if s != 1.0 {
-                kind = ValueKind::Scalar { integer: false };
+                kind = kind.no_longer_integer();
             }
             s
         }
@@ -152,7 +152,7 @@ pub(crate) fn observable(
                     format!("must be a finite positive number, got {b}"),
                 ));
             }
-            kind = ValueKind::Scalar { integer: false };
+            kind = kind.no_longer_integer();
             Some(b)
         }
     };
@@ -181,7 +181,7 @@ fn combine(
     earlier: &[ObservableSpec],
 ) -> Result<(ReadSpec, ValueKind), ScenarioError> {
     // A component: a number read by the same model, defined earlier in the file.
-    let number = |p: &str, n: &str| -> Result<(usize, bool), ScenarioError> {
+    let number = |p: &str, n: &str| -> Result<(usize, (bool, bool)), ScenarioError> {
         let Some(i) = earlier.iter().position(|x| x.name == n) else {
             let known: Vec<&str> = earlier.iter().map(|x| x.name.as_str()).collect();
             return Err(ck.error(
@@ -209,9 +209,10 @@ fn combine(
             (ReadSpec::Combined(_), _) => {
                 return Err(ck.error(p, format!("\"{n}\" is itself combined; combine read-outs")))
             }
-            (ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_), ValueKind::Scalar { integer }) => {
-                integer
-            }
+            (
+                ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_),
+                ValueKind::Scalar { integer, discrete },
+            ) => (integer, discrete),
             (ReadSpec::SixVertex(_) | ReadSpec::Exclusion(_), k) => {
                 return Err(ck.error(
                     p,
@@ -254,7 +255,10 @@ fn combine(
             };
             (
                 ReadSpec::Combined(comb),
-                ValueKind::Scalar { integer: za && zb },
+                ValueKind::Scalar {
+                    integer: za.0 && zb.0,
+                    discrete: za.1 && zb.1,
+                },
             )
         }
         RawCombine::Compare(cmp) => {

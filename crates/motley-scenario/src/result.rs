@@ -1,4 +1,4 @@
-//! The machine-readable result of a run: the content of `result.json`, schema `motley-result/2`.
+//! The machine-readable result of a run: the content of `result.json`, schema `motley-result/3`.
 //!
 //! Field meanings are documented in `docs/result-schema.md` and checked against
 //! `docs/result.schema.json` by the tests. Only the fields under `timing` may differ between two runs
@@ -7,7 +7,7 @@
 use serde::{Deserialize, Serialize};
 
 /// The schema identifier written into every result.
-pub const SCHEMA: &str = "motley-result/2";
+pub const SCHEMA: &str = "motley-result/3";
 
 /// A whole result.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
@@ -25,6 +25,46 @@ pub struct RunResult {
     pub timing: Timing,
     /// One entry per claim, in file order.
     pub claims: Vec<ClaimResult>,
+    /// How the run sampled when the scenario planned looks (`null` for a single look at `samples`).
+    pub sequential: Option<Sequential>,
+}
+
+/// A sequential run: the planned looks, the level each spent, where it stopped and why.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct Sequential {
+    /// Samples per side at each planned look, increasing; the last is the scenario's `samples`.
+    pub looks: Vec<u64>,
+    /// The level each look tests at (quadratic α-spending; they add up to `alpha`).
+    pub levels: Vec<f64>,
+    /// Looks taken (1-based count; the run stopped after this one).
+    pub looks_taken: usize,
+    /// Samples per side used.
+    pub samples_used: u64,
+    /// Why the run stopped.
+    pub stopped: StopReason,
+}
+
+/// Why a sequential run stopped.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum StopReason {
+    /// Every tested claim was decided (rejected or equal within its tolerance).
+    AllDecided,
+    /// The last planned look was reached.
+    LastLook,
+    /// Only this look was asked for (`--look`); the next look would continue the sequence.
+    LookAsked,
+}
+
+/// How the verdicts of several claims are controlled together.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum ErrorControl {
+    /// Each claim at `alpha` on its own (the default).
+    PerClaim,
+    /// Benjamini–Hochberg across the tested claims: the expected share of false rejections among
+    /// the rejections is at most `alpha`.
+    FalseDiscoveryRate,
 }
 
 /// What was run.
@@ -46,6 +86,8 @@ pub struct ScenarioInfo {
     pub alpha: f64,
     /// Power at which detectable differences are quoted.
     pub power: f64,
+    /// How the claims' verdicts are controlled together.
+    pub error_control: ErrorControl,
 }
 
 /// Timing (excluded from reproducibility comparisons).
@@ -76,6 +118,14 @@ pub struct ClaimResult {
     pub decided_by: DecidedBy,
     /// Whether the claim is rejected at `alpha` (always false for `describe`).
     pub rejected: bool,
+    /// The decision in one word (see [`Decision`]).
+    pub decision: Decision,
+    /// The level the deciding test used: `alpha`, or a look's share of it in a sequential run.
+    pub level: f64,
+    /// The tolerance `ε` the claim stated, if any.
+    pub tolerance: Option<f64>,
+    /// In a sequential run: the look (1-based) at which this claim was decided, or the last look.
+    pub look: Option<usize>,
     /// One sentence: the verdict and what it means.
     pub verdict: String,
     /// Samples per side (0 when decided exactly).
@@ -141,6 +191,47 @@ impl ClaimKindName {
             | ClaimKindName::Error => false,
         }
     }
+}
+
+/// A claim's decision.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum Decision {
+    /// The deciding test rejected the claim (or the exact law contradicts it).
+    Rejected,
+    /// Not rejected, and the upper confidence bound of the distance lies below the tolerance.
+    EqualWithin,
+    /// Not rejected; no tolerance was stated.
+    NotRejected,
+    /// Not rejected, but the upper confidence bound is not below the stated tolerance.
+    Undecided,
+    /// The exact law confirms the claim.
+    HoldsExactly,
+    /// Nothing was tested (`describe`, `series`, `joint`, a probability or mean without a value).
+    NoClaim,
+}
+
+impl Decision {
+    /// Whether a sequential run may stop for this claim.
+    pub fn settled(self) -> bool {
+        match self {
+            Decision::Rejected
+            | Decision::EqualWithin
+            | Decision::HoldsExactly
+            | Decision::NoClaim => true,
+            Decision::NotRejected | Decision::Undecided => false,
+        }
+    }
+}
+
+/// A test's part in the decision.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum TestRole {
+    /// The one test that decides the claim at the claim's level.
+    Deciding,
+    /// Reported beside it; does not move the verdict.
+    Diagnostic,
 }
 
 /// How a claim was decided.
@@ -216,11 +307,14 @@ pub struct TestResult {
     pub statistic: f64,
     /// Degrees of freedom, where the test has them.
     pub dof: Option<f64>,
+    /// Deciding or diagnostic.
+    pub role: TestRole,
     /// p-value of this test alone.
     pub p_value: f64,
-    /// p-value after the claim-level Holm adjustment across its tests.
+    /// For the deciding test: the p-value compared with the claim's level (Benjamini–Hochberg
+    /// adjusted across claims under false-discovery-rate control); for a diagnostic, its p-value.
     pub adjusted_p_value: f64,
-    /// Whether this test rejects at `alpha` after adjustment.
+    /// Whether the deciding test rejects (always false for a diagnostic).
     pub rejected: bool,
     /// Caveats: pooling done, conservativeness for discrete data, and the like.
     pub note: String,
@@ -231,12 +325,23 @@ pub struct TestResult {
 pub struct Effect {
     /// What the numbers measure, e.g. `total variation` or `probability gap`.
     pub measure: String,
-    /// Point estimate.
+    /// Point estimate; for total variation the plug-in value minus its bias (`plug_in` −
+    /// `same_law_level`, at least 0).
     pub estimate: f64,
-    /// Upper confidence bound at level `1 − alpha`.
+    /// The plain plug-in estimate, where `estimate` corrects it.
+    pub plug_in: Option<f64>,
+    /// The plug-in value expected if the two laws were equal (its bias), where it matters.
+    pub same_law_level: Option<f64>,
+    /// Upper confidence bound at level `1 − level` for the distance between the full laws.
     pub upper_bound: f64,
-    /// Smallest difference detectable at `alpha` with the scenario's power.
+    /// Smallest difference the deciding test detects at its level with the scenario's power,
+    /// for the worst alternative of that size.
     pub detectable: f64,
+    /// What `detectable` measures (it can differ from `measure`: a chi-square on a number's
+    /// support detects total variation on the compared cells).
+    pub detectable_measure: String,
+    /// What the power statement covers and what not.
+    pub covers: String,
 }
 
 /// An exact decision.

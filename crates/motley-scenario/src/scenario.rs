@@ -44,6 +44,11 @@ pub struct Scenario {
     pub alpha: f64,
     /// Power used to quote the detectable difference.
     pub power: f64,
+    /// How the claims' verdicts are controlled together.
+    pub error_control: crate::result::ErrorControl,
+    /// Planned looks of a sequential run (samples per side, increasing, the last = `samples`);
+    /// `None` for one look at `samples`.
+    pub looks: Option<Vec<u64>>,
     /// Models in file order.
     pub models: Vec<ModelSpec>,
     /// Observables in file order.
@@ -191,10 +196,14 @@ pub enum ValueKind {
         /// Universe size.
         universe: usize,
     },
-    /// A number (`integer`: its values are integers, so KS is conservative on it).
+    /// A number (`integer`: its values are integers; `discrete`: its values are read from
+    /// integers, possibly scaled, shifted or raised — a countable support, so the chi-square on the
+    /// support decides same-law claims on it).
     Scalar {
         /// Integer-valued.
         integer: bool,
+        /// Read from integers (also after `scale`, `shift`, `base`).
+        discrete: bool,
     },
     /// True or false.
     Event,
@@ -219,7 +228,22 @@ impl ValueKind {
             | ValueKind::Event
             | ValueKind::Sequence { .. }
             | ValueKind::Tuple { .. } => true,
-            ValueKind::Scalar { integer } => *integer,
+            ValueKind::Scalar { integer, .. } => *integer,
+        }
+    }
+
+    /// The same kind after a modifier that keeps the values countable but not integer (`scale`,
+    /// a fractional `shift`, `base`).
+    pub fn no_longer_integer(self) -> Self {
+        match self {
+            ValueKind::Scalar { discrete, .. } => ValueKind::Scalar {
+                integer: false,
+                discrete,
+            },
+            ValueKind::Set { .. }
+            | ValueKind::Event
+            | ValueKind::Sequence { .. }
+            | ValueKind::Tuple { .. } => self,
         }
     }
 
@@ -430,4 +454,6 @@ pub struct ClaimSpec {
     pub kind: ClaimKind,
     /// Exact mode.
     pub exact: ExactMode,
+    /// The tolerance `ε` within which equality is confirmed, if stated.
+    pub tolerance: Option<f64>,
 }

@@ -268,7 +268,10 @@ impl ModelFamily for SixVertexSpec {
         raw: &RawRead,
     ) -> Result<(ReadSpec, ValueKind), ScenarioError> {
         let rp = cx.path;
-        let int = ValueKind::Scalar { integer: true };
+        let int = ValueKind::Scalar {
+            integer: true,
+            discrete: true,
+        };
         let (read, kind) = match raw {
             RawRead::Top(k) => (
                 SixVertexRead::Top(set_read(*k)),

@@ -12,6 +12,7 @@ pub use crate::checker::{MAX_COLOR, MAX_SIDE};
 use crate::error::ScenarioError;
 use crate::locate::Locations;
 use crate::raw::*;
+use crate::result::ErrorControl;
 use crate::scenario::*;
 
 /// Validates `raw` (read from `file`, located by `locations`); `hash` is the file's SHA-256.
@@ -41,6 +42,17 @@ pub fn validate(
         return Err(ck.error("power", format!("must lie in (0, 1), got {power}")));
     }
     let exact = mode(raw.exact.unwrap_or(RawExactMode::Auto));
+    let error_control = match raw.error_control.unwrap_or(RawErrorControl::PerClaim) {
+        RawErrorControl::PerClaim => ErrorControl::PerClaim,
+        RawErrorControl::FalseDiscoveryRate => ErrorControl::FalseDiscoveryRate,
+    };
+    let looks = looks(&ck, raw.looks.as_ref(), raw.samples)?;
+    if looks.is_some() && error_control == ErrorControl::FalseDiscoveryRate {
+        return Err(ck.error(
+            "error-control",
+            "false-discovery-rate control and `looks` cannot be combined: remove one of them",
+        ));
+    }
     if raw.models.is_empty() {
         return Err(ck.error("models", "at least one model is needed"));
     }
@@ -113,11 +125,82 @@ pub fn validate(
         samples: raw.samples,
         alpha,
         power,
+        error_control,
+        looks,
         models,
         observables,
         claims,
         hash,
     })
+}
+
+/// A claim's `tolerance`: only where a distance is tested, positive, at most 1 for distances
+/// between laws.
+fn tolerance(
+    ck: &Checker,
+    path: &str,
+    value: Option<f64>,
+    kind: &ClaimKind,
+) -> Result<Option<f64>, ScenarioError> {
+    let Some(eps) = value else {
+        return Ok(None);
+    };
+    let key = format!("{path}.tolerance");
+    let bounded = match kind {
+        ClaimKind::SameLaw(..) | ClaimKind::LawOf(..) | ClaimKind::Probability(_, Some(_)) => true,
+        ClaimKind::Mean(_, Some(_)) => false,
+        ClaimKind::Probability(_, None)
+        | ClaimKind::Mean(_, None)
+        | ClaimKind::Describe(..)
+        | ClaimKind::Series(_)
+        | ClaimKind::Joint(..) => {
+            return Err(ck.error(
+                &key,
+                "a tolerance applies to claims that test something: same-law, law-of, probability \
+                 with `equals`, mean with `equals`",
+            ))
+        }
+    };
+    let ok = eps.is_finite() && eps > 0.0 && (!bounded || eps <= 1.0);
+    if !ok {
+        let range = if bounded { "(0, 1]" } else { "(0, ∞)" };
+        return Err(ck.error(&key, format!("must lie in {range}, got {eps}")));
+    }
+    Ok(Some(eps))
+}
+
+/// `looks`: increasing positive sample counts up to `samples`; `samples` is appended as the last
+/// look when it is not listed. At most 64 looks.
+fn looks(
+    ck: &Checker,
+    raw: Option<&Vec<u64>>,
+    samples: u64,
+) -> Result<Option<Vec<u64>>, ScenarioError> {
+    let Some(list) = raw else {
+        return Ok(None);
+    };
+    let mut out = list.clone();
+    if out.last() != Some(&samples) {
+        out.push(samples);
+    }
+    for (k, w) in out.windows(2).enumerate() {
+        if w[0] >= w[1] {
+            return Err(ck.error(
+                &format!("looks[{}]", (k + 1).min(list.len() - 1)),
+                format!(
+                    "looks must increase and stay at most `samples` ({samples}); got {} after {}",
+                    w[1], w[0]
+                ),
+            ));
+        }
+    }
+    if out[0] == 0 {
+        return Err(ck.error("looks[0]", "a look needs at least 1 sample"));
+    }
+    if out.len() > 64 {
+        return Err(ck.error("looks", format!("at most 64 looks, got {}", out.len())));
+    }
+    Ok(Some(out))
 }
 
 fn mode(m: RawExactMode) -> ExactMode {
@@ -603,11 +686,13 @@ fn claim(
             ));
         }
     }
+    let tolerance = tolerance(ck, path, c.tolerance, &kind)?;
     Ok(ClaimSpec {
         id: c.id.clone(),
         says: c.says.clone().unwrap_or_default(),
         kind,
         exact: c.exact.map(mode).unwrap_or(default_mode),
+        tolerance,
     })
 }
 
@@ -691,7 +776,7 @@ fn reference(
                     format!("\"{name}\" must be an exclusion `window` read `as: positions`"),
                 ));
             }
-            if !matches!(obs[i].kind, ValueKind::Scalar { integer: true }) {
+            if !matches!(obs[i].kind, ValueKind::Scalar { integer: true, .. }) {
                 return Err(ck.error(
                     &format!("{p}.observable"),
                     format!(

@@ -73,6 +73,7 @@ fn all_keys() -> BTreeSet<String> {
         accepted::<RawCompare>(s),
         accepted::<RawRelation>(u),
         accepted::<RawExactMode>(u),
+        accepted::<RawErrorControl>(u),
         accepted::<RawStrength>(u),
     ];
     lists.into_iter().flatten().collect()

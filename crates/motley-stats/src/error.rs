@@ -78,6 +78,9 @@ pub enum StatsError {
     /// A target difference outside (0, 1].
     #[error("target difference must lie in (0, 1], got {0}")]
     InvalidDifference(f64),
+    /// Looks of a sequential run that are empty, zero or not increasing.
+    #[error("looks must be a non-empty list of increasing positive sample counts")]
+    InvalidLooks,
     /// Two proportions that must differ but are equal.
     #[error("`p1` and `p2` must differ for a sample-size calculation, both are {0}")]
     EqualProportions(f64),

@@ -168,6 +168,9 @@ pub struct InclusionComparison {
     /// Smallest adjusted p-value (1 if nothing was tested): reject "same inclusion frequencies for
     /// every element" at level α when this is `<= α`.
     pub min_adjusted_p_value: f64,
+    /// Simes' global p-value over the tested elements (1 if nothing was tested): the same global
+    /// hypothesis, less conservative than Holm when the elements are positively correlated.
+    pub simes_p_value: f64,
 }
 
 /// Compares inclusion frequencies element by element (see the file header for the method).
@@ -217,6 +220,7 @@ pub fn compare_inclusion(
         elements,
         tested: tested_idx.len(),
         min_adjusted_p_value: min_adj,
+        simes_p_value: crate::simes(&tested_p)?,
     })
 }
 

@@ -55,8 +55,9 @@ pub fn kolmogorov_sf(x: f64) -> f64 {
 /// assert!((motley_stats::kolmogorov_quantile(0.05) - 1.358).abs() < 1e-3);
 /// ```
 pub fn kolmogorov_quantile(alpha: f64) -> f64 {
-    let (mut lo, mut hi) = (0.2, 5.0);
-    for _ in 0..100 {
+    // P(K > 40) = 2e^{-3200} underflows to 0: every level a float can hold lies below 40.
+    let (mut lo, mut hi) = (0.2, 40.0);
+    for _ in 0..200 {
         let mid = 0.5 * (lo + hi);
         if kolmogorov_sf(mid) > alpha {
             lo = mid;

@@ -48,6 +48,7 @@ mod binomial_test;
 mod categorical_counts;
 mod chi_square;
 mod chi_square_dist;
+mod equivalence;
 mod error;
 mod exact_law;
 mod inclusion;
@@ -60,6 +61,7 @@ mod pooling;
 mod power;
 mod proportion_interval;
 mod scalar_sample;
+mod spending;
 mod total_variation;
 mod two_proportion;
 
@@ -71,9 +73,10 @@ pub use chi_square::{
     ChiSquareResult,
 };
 pub use chi_square_dist::{
-    chi_square_cdf, chi_square_quantile, chi_square_sf, noncentral_chi_square_sf, normal_sf,
-    normal_upper_quantile,
+    chi_square_cdf, chi_square_quantile, chi_square_sf, chi_square_upper_quantile,
+    noncentral_chi_square_sf, normal_sf, normal_upper_quantile,
 };
+pub use equivalence::{samples_to_confirm, ToleranceMeasure};
 pub use error::StatsError;
 pub use exact_law::{ExactLaw, LAW_MASS_TOLERANCE};
 pub use inclusion::{compare_inclusion, ElementComparison, InclusionComparison, InclusionCounts};
@@ -83,7 +86,7 @@ pub use ks_two_sample::{
     ks_two_sample, ks_two_sample_counts, KsMethod, KsPValueMethod, KsResult,
     EXACT_TWO_SAMPLE_MAX_PRODUCT,
 };
-pub use multiple_testing::{benjamini_hochberg, holm_bonferroni};
+pub use multiple_testing::{benjamini_hochberg, holm_bonferroni, simes};
 pub use permutation::{ks_permutation_test, ks_permutation_test_counts, PermutationResult};
 pub use power::{
     chi_square_noncentrality_for_power, detectable_probability_gap, detectable_total_variation,
@@ -91,6 +94,7 @@ pub use power::{
 };
 pub use proportion_interval::{clopper_pearson_interval, wilson_interval, Interval};
 pub use scalar_sample::ScalarSample;
+pub use spending::look_levels;
 pub use total_variation::{total_variation, total_variation_to_law, tv_bound_margin, TvEstimate};
 pub use two_proportion::{
     fisher_exact_p_value, two_proportion_p_value, ProportionTest, Z_TEST_MIN_EXPECTED,

@@ -21,7 +21,7 @@
 //! For many elements tested together, pass the per-element level (e.g. `α / m` for Bonferroni).
 
 use crate::chi_square_dist::{
-    chi_square_quantile, noncentral_chi_square_sf, normal_upper_quantile,
+    chi_square_upper_quantile, noncentral_chi_square_sf, normal_upper_quantile,
 };
 use crate::StatsError;
 
@@ -50,13 +50,21 @@ pub fn chi_square_noncentrality_for_power(
         return Err(StatsError::TooFewCells(1));
     }
     let k = dof as f64;
-    let crit = chi_square_quantile(1.0 - alpha, k);
+    let crit = chi_square_upper_quantile(alpha, k);
     if power <= alpha {
         return Ok(0.0);
     }
+    if !crit.is_finite() {
+        return Err(StatsError::InvalidAlpha(alpha));
+    }
+    // The noncentral tail at a finite critical value reaches any power below 1 for a finite λ;
+    // the doubling is bounded all the same, so no input can make it loop.
     let mut hi = 1.0f64;
     while noncentral_chi_square_sf(crit, k, hi) < power {
         hi *= 2.0;
+        if hi > 1e300 {
+            return Err(StatsError::InvalidPower(power));
+        }
     }
     let mut lo = 0.0f64;
     while hi - lo > 1e-12 * hi {
@@ -223,6 +231,18 @@ pub fn sample_size_for_probability_gap(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn tiny_levels_finish() {
+        // An alpha below f64::EPSILON used to make the critical value infinite and the doubling
+        // loop spin forever; now it gives a finite, larger noncentrality.
+        let at_1e20 = chi_square_noncentrality_for_power(10, 1e-20, 0.8).unwrap();
+        let at_05 = chi_square_noncentrality_for_power(10, 0.05, 0.8).unwrap();
+        assert!(at_1e20.is_finite() && at_1e20 > at_05, "{at_1e20} {at_05}");
+        assert!(detectable_total_variation(1000, 1000, 10, 1e-300, 0.99)
+            .unwrap()
+            .is_some_and(|d| d.is_finite()));
+    }
 
     #[test]
     fn noncentrality_matches_reference() {

@@ -5,8 +5,9 @@
 
 use motley_report::Picture;
 use motley_scenario::result::{
-    ClaimKindName, ClaimResult, DecidedBy, Discrepancy, Effect, Estimates, ExactResult, Interval,
-    Moments, Outcome, RunResult, ScenarioInfo, Series, TestResult, Timing, SCHEMA,
+    ClaimKindName, ClaimResult, DecidedBy, Decision, Discrepancy, Effect, ErrorControl, Estimates,
+    ExactResult, Interval, Moments, Outcome, RunResult, ScenarioInfo, Series, TestResult, TestRole,
+    Timing, SCHEMA,
 };
 
 /// A curve with a band of half-width `half` around `y`.
@@ -48,9 +49,14 @@ pub fn test(
         name: name.into(),
         statistic,
         dof,
+        role: if name.starts_with("chi-square") {
+            TestRole::Deciding
+        } else {
+            TestRole::Diagnostic
+        },
         p_value: p,
         adjusted_p_value: adj,
-        rejected: adj < alpha,
+        rejected: name.starts_with("chi-square") && adj < alpha,
         note: "pooled cells with expected count below 5".into(),
     }
 }
@@ -69,7 +75,7 @@ pub fn same_law(id: &str, rejected: bool, alpha: f64) -> ClaimResult {
             18.2,
             Some(14.0),
             p1,
-            (2.0 * p1).min(1.0),
+            p1,
             alpha,
         ),
         test(
@@ -99,6 +105,14 @@ pub fn same_law(id: &str, rejected: bool, alpha: f64) -> ClaimResult {
         observables: vec!["top-exits".into(), "transposed-occupation".into()],
         decided_by: DecidedBy::MonteCarlo,
         rejected,
+        decision: if rejected {
+            Decision::Rejected
+        } else {
+            Decision::NotRejected
+        },
+        level: alpha,
+        tolerance: None,
+        look: None,
         verdict: if rejected {
             "The two laws differ.".into()
         } else {
@@ -109,8 +123,12 @@ pub fn same_law(id: &str, rejected: bool, alpha: f64) -> ClaimResult {
         effect: Some(Effect {
             measure: "total variation".into(),
             estimate: 0.0061,
+            plug_in: Some(0.0103),
+            same_law_level: Some(0.0042),
             upper_bound: 0.0143,
             detectable: 0.0187,
+            detectable_measure: "total variation on the 14 compared cells".into(),
+            covers: "differences between the 14 compared cells".into(),
         }),
         exact: None,
         stated: None,
@@ -156,6 +174,10 @@ pub fn exact_law(id: &str) -> ClaimResult {
         observables: vec!["second-class-position".into()],
         decided_by: DecidedBy::Exact,
         rejected: false,
+        decision: Decision::HoldsExactly,
+        level: 0.01,
+        tolerance: None,
+        look: None,
         verdict: "Equal laws at this size.".into(),
         samples: 0,
         tests: vec![],
@@ -186,6 +208,10 @@ pub fn swap_probability(id: &str) -> ClaimResult {
         observables: vec!["swapped".into()],
         decided_by: DecidedBy::MonteCarlo,
         rejected: false,
+        decision: Decision::NoClaim,
+        level: 0.01,
+        tolerance: None,
+        look: None,
         verdict: "Estimated with intervals.".into(),
         samples: 4000,
         tests: vec![],
@@ -218,6 +244,10 @@ pub fn describe(id: &str) -> ClaimResult {
         observables: vec!["corner-occupied".into()],
         decided_by: DecidedBy::MonteCarlo,
         rejected: false,
+        decision: Decision::NoClaim,
+        level: 0.01,
+        tolerance: None,
+        look: None,
         verdict: "".into(),
         samples: 4000,
         tests: vec![],
@@ -246,6 +276,7 @@ pub fn run(claims: Vec<ClaimResult>) -> RunResult {
             samples: 20000,
             alpha: 0.01,
             power: 0.8,
+            error_control: ErrorControl::PerClaim,
         },
         timing: Timing {
             wall_seconds: 12.34,
@@ -254,6 +285,7 @@ pub fn run(claims: Vec<ClaimResult>) -> RunResult {
             shards: 1,
         },
         claims,
+        sequential: None,
     }
 }
 
