@@ -1,5 +1,6 @@
 //! `motley check`: validation and a cost estimate, without running anything.
 
+use motley_scenario::confirm::samples_to_confirm_claim;
 use motley_scenario::cost::estimate;
 use motley_scenario::plan::plan;
 
@@ -31,9 +32,27 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
         s.observables.len(),
         s.claims.len()
     );
-    for (c, exact) in s.claims.iter().zip(&p.exact) {
+    for (ci, (c, exact)) in s.claims.iter().zip(&p.exact).enumerate() {
         let how = if *exact { "exact laws" } else { "Monte Carlo" };
-        println!("  claim {:<22} decided by {how}", c.id);
+        let confirm = match (c.tolerance, *exact) {
+            (Some(eps), false) => match samples_to_confirm_claim(s, ci) {
+                Some(n) => format!(
+                    "; to confirm EQUAL WITHIN {eps} with power {} needs about {n} samples per side{}",
+                    s.power,
+                    if n > s.samples { " (more than `samples`)" } else { "" }
+                ),
+                None => format!("; tolerance {eps} (no sample size formula for this kind)"),
+            },
+            _ => String::new(),
+        };
+        println!("  claim {:<22} decided by {how}{confirm}", c.id);
+    }
+    if let Some(looks) = &s.looks {
+        let list: Vec<String> = looks.iter().map(|n| n.to_string()).collect();
+        println!(
+            "  sampling until decided: looks at {} samples per side",
+            list.join(", ")
+        );
     }
     let cost = estimate(s, &p, t);
     println!(

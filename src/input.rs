@@ -23,6 +23,15 @@ pub fn load_text(text: String, file: String, samples: Option<u64>) -> Result<Loa
         if n == 0 {
             return Err(Failure::BadInput("--samples must be at least 1".into()));
         }
+        if let Some(looks) = &scenario.looks {
+            if !looks.contains(&n) {
+                let list: Vec<String> = looks.iter().map(|l| l.to_string()).collect();
+                return Err(Failure::BadInput(format!(
+                    "{file}: the scenario plans looks at {} samples per side; --samples must be one of them (one look at a time), got {n}",
+                    list.join(", ")
+                )));
+            }
+        }
         scenario.samples = n;
     }
     Ok(Loaded {

@@ -12,6 +12,7 @@ use motley_report::{
 use motley_scenario::finish::finish;
 use motley_scenario::plan::plan;
 use motley_scenario::run::{advance, Partial, Shard, Workers};
+use motley_scenario::sequential::{freeze_settled, next_look};
 use motley_scenario::Scenario;
 
 use crate::cli::RunArgs;
@@ -195,7 +196,20 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
     let mut last = Instant::now();
     let step = ((end - start) / 50).max(motley_scenario::run::CHUNK * 8 * threads as u64);
     let workers = Workers::new(threads).map_err(|e| Failure::Runtime(e.to_string()))?;
+    // Planned looks are taken by a single process; a shard runs its slice of one look's samples.
+    let looks = shard.is_none() && s.looks.is_some();
     loop {
+        let mut budget = step;
+        if looks {
+            let look = next_look(s, partial.done);
+            if partial.done == look && look < end {
+                let at_look = finish(s, &p, std::slice::from_ref(&partial), GIT_COMMIT);
+                if freeze_settled(&mut partial, &at_look) {
+                    break;
+                }
+            }
+            budget = budget.min(next_look(s, partial.done + 1) - partial.done);
+        }
         let before = partial.done;
         let complete = advance(
             s,
@@ -204,7 +218,7 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
             &workers,
             &AtomicU64::new(0),
             &stop,
-            Some(step),
+            Some(budget),
         )
         .map_err(|e| Failure::Runtime(e.to_string()))?;
         counter.fetch_add(

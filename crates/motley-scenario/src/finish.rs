@@ -224,6 +224,12 @@ pub fn finish(s: &Scenario, plan: &Plan, partials: &[Partial], git_commit: &str)
             }
         })
         .collect();
+    // Claims a sequential run settled at an earlier look keep that look's verdict.
+    for frozen in partials.iter().flat_map(|p| &p.settled) {
+        if let Some(c) = claims.iter_mut().find(|c| c.id == frozen.id) {
+            *c = frozen.clone();
+        }
+    }
     if s.error_control == ErrorControl::FalseDiscoveryRate {
         crate::sequential::control_false_discoveries(s, plan, &mut claims);
     }

@@ -38,6 +38,7 @@
 pub mod accumulate;
 mod checker;
 pub mod combination;
+pub mod confirm;
 pub mod cost;
 pub mod error;
 pub mod estimate;

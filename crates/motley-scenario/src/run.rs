@@ -69,6 +69,9 @@ pub struct Partial {
     pub wall_seconds: f64,
     /// Threads used.
     pub threads: usize,
+    /// In a sequential run, the claims settled at an earlier look, as that look decided them.
+    #[serde(default)]
+    pub settled: Vec<crate::result::ClaimResult>,
 }
 
 impl Partial {
@@ -90,6 +93,7 @@ impl Partial {
                 .collect(),
             wall_seconds: 0.0,
             threads: 0,
+            settled: Vec::new(),
         }
     }
 

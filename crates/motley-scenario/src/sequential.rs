@@ -5,8 +5,10 @@
 //! is `samples`). Look `k` decides every claim at its level `α_k` from quadratic α-spending
 //! ([`motley_stats::look_levels`]; the levels add up to `α`, so by the union bound the chance that
 //! any look wrongly rejects — or wrongly confirms equality within a tolerance — is at most `α`).
-//! The run stops after the first look at which every tested claim is settled (rejected, equal within
-//! its tolerance, or decided exactly); claims are reported as that look decided them. Looks fall at
+//! A claim settled at a look (rejected, equal within its tolerance) keeps that look's verdict; the
+//! run stops after the first look at which every tested claim is settled (or decided exactly). A
+//! single process records the settled claims in its checkpoints, so `--resume` keeps them; a run
+//! of one look on a cluster (`--samples n_k` with shards) reports every claim as look k decides it. Looks fall at
 //! fixed sample counts and a look's result depends only on the samples `0..n_k`, so threads, shards
 //! and resumption give the same result.
 
@@ -40,7 +42,7 @@ impl Look {
         let looks = s.looks.clone().unwrap_or_default();
         let levels = motley_stats::look_levels(&looks, s.alpha).unwrap_or_default();
         for c in claims.iter_mut() {
-            if c.decided_by == DecidedBy::MonteCarlo {
+            if c.decided_by == DecidedBy::MonteCarlo && c.look.is_none() {
                 c.look = Some(self.index + 1);
             }
         }
@@ -72,6 +74,21 @@ pub fn next_look(s: &Scenario, done: u64) -> u64 {
             .unwrap_or(s.samples),
         None => s.samples,
     }
+}
+
+/// Records in `partial` the claims of `result` (a look's evaluation) that this look settled, so
+/// that later looks keep their verdicts; returns whether every claim is now settled.
+pub fn freeze_settled(
+    partial: &mut crate::run::Partial,
+    result: &crate::result::RunResult,
+) -> bool {
+    for c in &result.claims {
+        let known = partial.settled.iter().any(|f| f.id == c.id);
+        if !known && c.decided_by == DecidedBy::MonteCarlo && c.decision.settled() {
+            partial.settled.push(c.clone());
+        }
+    }
+    all_settled(&result.claims)
 }
 
 /// Whether every claim is settled, so that a sequential run may stop.
