@@ -6,16 +6,7 @@ use motley_scenario::plan::plan;
 use crate::cli::CheckArgs;
 use crate::exit::Failure;
 use crate::input::{check_memory, human_bytes, load, threads};
-
-fn human_seconds(s: f64) -> String {
-    if s < 90.0 {
-        format!("{s:.1} s")
-    } else if s < 5400.0 {
-        format!("{:.1} min", s / 60.0)
-    } else {
-        format!("{:.1} h", s / 3600.0)
-    }
-}
+use crate::progress::human_seconds;
 
 /// `motley check`.
 pub fn check(a: CheckArgs) -> Result<(), Failure> {

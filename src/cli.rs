@@ -75,6 +75,9 @@ pub struct RunArgs {
     /// No progress bar.
     #[arg(long)]
     pub quiet: bool,
+    /// Seconds between progress lines when stderr is not a terminal (a batch job's log).
+    #[arg(long, value_name = "SECONDS", default_value_t = 60.0)]
+    pub log_every: f64,
 }
 
 /// `motley check`.

@@ -6,6 +6,7 @@ use crate::cli::Source;
 use crate::exit::Failure;
 
 /// A loaded scenario with its text and the name used in messages.
+#[derive(Clone)]
 pub struct Loaded {
     /// The validated scenario.
     pub scenario: Scenario,

@@ -9,6 +9,7 @@ mod input;
 mod merge_cmd;
 mod progress;
 mod run_cmd;
+mod stopping;
 
 use clap::Parser;
 

@@ -1,6 +1,7 @@
 //! `motley merge`: the shards' partial results into the report one run would have given.
 
 use motley_scenario::finish::check_partials;
+use motley_scenario::plan::plan;
 use motley_scenario::run::Partial;
 
 use crate::cli::MergeArgs;
@@ -20,8 +21,9 @@ pub fn merge(a: MergeArgs) -> Result<(), Failure> {
                 "{shown}: cannot read a shard's partial result: {e}"
             ))
         })?;
-        let p: Partial = serde_json::from_str(&text)
-            .map_err(|e| Failure::BadInput(format!("{shown}: not a valid partial result: {e}")))?;
+        let p = Partial::from_json(&text).map_err(|why| {
+            Failure::BadInput(format!("{shown}: not a usable partial result: it {why}"))
+        })?;
         if scenario.is_none() {
             let sf = dir.join(SCENARIO_FILE);
             let t = std::fs::read_to_string(&sf).map_err(|e| {
@@ -37,7 +39,10 @@ pub fn merge(a: MergeArgs) -> Result<(), Failure> {
     let (text, file) = scenario.ok_or_else(|| Failure::BadInput("nothing to merge".into()))?;
     let samples = partials.first().map(|(_, p)| p.samples);
     let loaded = load_text(text, file, samples)?;
-    check_partials(&loaded.scenario, &partials).map_err(|e| Failure::BadInput(e.to_string()))?;
+    let plan =
+        plan(&loaded.scenario, &loaded.file).map_err(|e| Failure::BadInput(e.to_string()))?;
+    check_partials(&loaded.scenario, &plan, &mut partials)
+        .map_err(|e| Failure::BadInput(e.to_string()))?;
     let mut sorted: Vec<Partial> = partials.into_iter().map(|(_, p)| p).collect();
     sorted.sort_by_key(|p| p.shard.index);
     report(&loaded, &sorted, &a.out, a.overwrite, false)

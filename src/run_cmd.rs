@@ -1,16 +1,15 @@
 //! `motley run`: validate, run (with checkpoints), and write the report or the shard's partial.
 
 use std::path::{Path, PathBuf};
-use std::sync::atomic::{AtomicBool, AtomicU64};
+use std::sync::atomic::AtomicU64;
 use std::sync::Arc;
-use std::time::Instant;
 
 use motley_report::{
-    check_destination, files, write_folder_atomic, write_json_atomic, write_report, Picture,
-    ReportError, ReportExtras,
+    abandon_staging, check_destination, files, write_file_atomic, write_folder_atomic,
+    write_report, Picture, ReportError, ReportExtras,
 };
 use motley_scenario::finish::finish;
-use motley_scenario::plan::plan;
+use motley_scenario::plan::{plan, Plan};
 use motley_scenario::run::{advance, Partial, Shard, Workers};
 use motley_scenario::Scenario;
 
@@ -18,6 +17,7 @@ use crate::cli::RunArgs;
 use crate::exit::Failure;
 use crate::input::{check_memory, load, threads, Loaded};
 use crate::progress::Progress;
+use crate::stopping::{Stops, Waited};
 
 /// The commit this binary was built from.
 pub const GIT_COMMIT: &str = env!("MOTLEY_GIT_COMMIT");
@@ -54,19 +54,24 @@ pub fn checkpoint_path(out: &Path) -> PathBuf {
     out.with_file_name(name)
 }
 
-fn read_checkpoint(path: &Path, s: &Scenario, shard: Shard) -> Result<Partial, Failure> {
+fn read_checkpoint(
+    path: &Path,
+    s: &Scenario,
+    plan: &Plan,
+    shard: Shard,
+) -> Result<Partial, Failure> {
     let shown = path.display();
     let text = std::fs::read_to_string(path).map_err(|e| {
         Failure::BadInput(format!(
             "cannot resume: no readable checkpoint at {shown} ({e})"
         ))
     })?;
-    let p: Partial = serde_json::from_str(&text).map_err(|e| {
+    let mut p = Partial::from_json(&text).map_err(|why| {
         Failure::BadInput(format!(
-            "cannot resume: checkpoint {shown} is corrupt ({e}); delete it to start over"
+            "cannot resume: checkpoint {shown} {why}; delete it to start over"
         ))
     })?;
-    p.check_resume(s, shard).map_err(|why| {
+    p.check_resume(s, plan, shard).map_err(|why| {
         Failure::BadInput(format!(
             "cannot resume: checkpoint {shown} {why}; delete it to start over"
         ))
@@ -152,6 +157,12 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
             a.checkpoint_every
         )));
     }
+    if !(a.log_every.is_finite() && a.log_every > 0.0) {
+        return Err(Failure::BadInput(format!(
+            "--log-every must be a number of seconds > 0, got {}",
+            a.log_every
+        )));
+    }
     let out = a.out.clone().unwrap_or_else(|| {
         let base = PathBuf::from("reports").join(&s.name);
         match shard {
@@ -169,7 +180,7 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
     let shard_used = shard.unwrap_or(Shard::WHOLE);
     let cp = checkpoint_path(&out);
     let mut partial = if a.resume {
-        read_checkpoint(&cp, s, shard_used)?
+        read_checkpoint(&cp, s, &p, shard_used)?
     } else {
         if cp.exists() {
             return Err(Failure::BadInput(format!(
@@ -180,71 +191,99 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         Partial::empty(s, &p, shard_used)
     };
 
-    let stop = Arc::new(AtomicBool::new(false));
-    for sig in [signal_hook::consts::SIGINT, signal_hook::consts::SIGTERM] {
-        signal_hook::flag::register(sig, stop.clone())
-            .map_err(|e| Failure::Runtime(format!("cannot install the signal handler: {e}")))?;
-    }
+    let stops = Stops::install(a.checkpoint_every)?;
     let (start, end) = shard_used.range(s.samples);
-    let per_unit_done = Arc::new(AtomicU64::new(
-        (partial.done - start) * p.units.len() as u64,
-    ));
-    let total = (end - start) * p.units.len() as u64;
-    let counter = Arc::new(AtomicU64::new(0));
-    let bar = Progress::start(counter.clone(), total, a.quiet);
-    let mut last = Instant::now();
-    let step = ((end - start) / 50).max(motley_scenario::run::CHUNK * 8 * threads as u64);
+    let counter = Arc::new(AtomicU64::new(partial.done - start));
+    let bar = Progress::start(counter.clone(), end - start, a.quiet, a.log_every);
     let workers = Workers::new(threads).map_err(|e| Failure::Runtime(e.to_string()))?;
     loop {
         let before = partial.done;
-        let complete = advance(
-            s,
-            &p,
-            &mut partial,
-            &workers,
-            &AtomicU64::new(0),
-            &stop,
-            Some(step),
-        )
-        .map_err(|e| Failure::Runtime(e.to_string()))?;
-        counter.fetch_add(
-            (partial.done - before) * p.units.len() as u64,
-            std::sync::atomic::Ordering::Relaxed,
-        );
+        let complete = advance(s, &p, &mut partial, &workers, &counter, &stops.stop, None)
+            .map_err(|e| Failure::Runtime(e.to_string()))?;
         if complete {
             break;
         }
-        if stop.load(std::sync::atomic::Ordering::Relaxed) {
+        if stops.interrupted() {
             drop(bar);
-            write_json_atomic(&cp, &partial).map_err(|e| Failure::Runtime(e.to_string()))?;
-            return Err(Failure::Interrupted(format!(
-                "interrupted after {} of {} samples; checkpoint written to {}; continue with the same command and --resume",
-                partial.done - start,
-                end - start,
-                cp.display()
-            )));
+            return Err(interrupted(&cp, &partial, start, end, "sampling"));
         }
-        if a.checkpoint_every > 0.0 && last.elapsed().as_secs_f64() >= a.checkpoint_every {
-            write_json_atomic(&cp, &partial).map_err(|e| Failure::Runtime(e.to_string()))?;
-            last = Instant::now();
+        if stops.take_due() {
+            // A checkpoint that cannot be written loses nothing yet: say so and go on.
+            if let Err(e) = write_file_atomic(&cp, partial.to_json().as_bytes()) {
+                eprintln!("motley: warning: checkpoint not written ({e}); the run goes on");
+            }
+        } else if partial.done == before {
+            return Err(Failure::Runtime(format!(
+                "the run made no progress at sample {} of {}; this is a bug",
+                partial.done - start,
+                end - start
+            )));
         }
     }
     drop(bar);
-    let _ = per_unit_done;
+    // The report phase (exact laws, statistics, figures, writing) runs on its own thread, so that
+    // a signal is honoured at once here: the complete partial becomes the checkpoint, and the
+    // staging folder is deleted.
+    let partial = Arc::new(partial);
+    let work = {
+        let (loaded, partial, out) = (loaded.clone(), partial.clone(), out.clone());
+        let (overwrite, fail_on_reject) = (a.overwrite, a.fail_on_reject);
+        move || finish_output(&loaded, &partial, shard, &out, overwrite, fail_on_reject)
+    };
+    let outcome = match stops.wait_for(work) {
+        Waited::Done(r) => r,
+        Waited::Interrupted(rx) => {
+            if abandon_staging() == 0 {
+                return Err(interrupted(&cp, &partial, start, end, "the report phase"));
+            }
+            // The output was complete before the signal: the rest is printing.
+            rx.recv()
+                .unwrap_or_else(|_| Err(Failure::Runtime("the report phase failed".into())))
+        }
+    };
+    outcome?;
+    let _ = std::fs::remove_file(&cp);
+    Ok(())
+}
+
+/// Writes the checkpoint of an interrupted run and the failure that ends it (exit 130).
+fn interrupted(cp: &Path, partial: &Partial, start: u64, end: u64, phase: &str) -> Failure {
+    if let Err(e) = write_file_atomic(cp, partial.to_json().as_bytes()) {
+        return Failure::Runtime(format!(
+            "interrupted during {phase}, and the checkpoint could not be written: {e}"
+        ));
+    }
+    Failure::Interrupted(format!(
+        "interrupted during {phase} after {} of {} samples; checkpoint written to {}; continue with the same command and --resume",
+        partial.done - start,
+        end - start,
+        cp.display()
+    ))
+}
+
+/// The last phase of a run: the report of a whole run, or the partial of a shard.
+fn finish_output(
+    loaded: &Loaded,
+    partial: &Partial,
+    shard: Option<Shard>,
+    out: &Path,
+    overwrite: bool,
+    fail_on_reject: bool,
+) -> Result<(), Failure> {
     match shard {
         Some(sh) => {
-            let json =
-                serde_json::to_vec_pretty(&partial).map_err(|e| Failure::Runtime(e.to_string()))?;
+            let json = partial.to_json();
             write_folder_atomic(
-                &out,
+                out,
                 &[
-                    (PARTIAL_FILE, json.as_slice()),
+                    (PARTIAL_FILE, json.as_bytes()),
                     (SCENARIO_FILE, loaded.text.as_bytes()),
                 ],
                 PARTIAL_FILE,
-                a.overwrite,
+                overwrite,
             )
             .map_err(report_failure)?;
+            let (start, end) = sh.range(partial.samples);
             println!(
                 "shard {}/{}: {} samples per unit written to {}",
                 sh.index,
@@ -252,15 +291,14 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
                 end - start,
                 out.display()
             );
+            Ok(())
         }
         None => report(
-            &loaded,
-            std::slice::from_ref(&partial),
-            &out,
-            a.overwrite,
-            a.fail_on_reject,
-        )?,
+            loaded,
+            std::slice::from_ref(partial),
+            out,
+            overwrite,
+            fail_on_reject,
+        ),
     }
-    let _ = std::fs::remove_file(&cp);
-    Ok(())
 }

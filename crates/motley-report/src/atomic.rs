@@ -14,11 +14,19 @@
 //! final name is briefly absent, never half-written. Only a folder that looks like one of ours (it holds
 //! the marker file of its kind, `result.json` for a report, or is empty) is ever replaced, so a mistaken
 //! `--out $HOME --overwrite` deletes nothing.
+//!
+//! # Interruption
+//! Every staging folder of the process is registered while it exists. [`abandon_staging`] (called
+//! by the command-line tool when a signal arrives during the report phase) deletes them all and
+//! makes every later publication fail with [`ReportError::Abandoned`]; publication and
+//! abandonment exclude each other, so either a folder was published whole before the signal, or
+//! nothing of it is left.
 
 use std::fs;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicU64, Ordering};
+use std::sync::Mutex;
 
 use serde::Serialize;
 
@@ -26,6 +34,36 @@ use crate::error::ReportError;
 
 /// Distinguishes temporary names made by one process.
 static COUNTER: AtomicU64 = AtomicU64::new(0);
+
+/// The staging folders of this process that exist now, whether they were abandoned, and how many
+/// folders were published; publication and abandonment hold this lock.
+static REGISTRY: Mutex<Registry> = Mutex::new(Registry {
+    live: Vec::new(),
+    abandoned: false,
+    published: 0,
+});
+
+struct Registry {
+    live: Vec<PathBuf>,
+    abandoned: bool,
+    published: u64,
+}
+
+fn registry() -> std::sync::MutexGuard<'static, Registry> {
+    REGISTRY.lock().unwrap_or_else(|e| e.into_inner())
+}
+
+/// Deletes every staging folder of this process and refuses every later publication (they fail
+/// with [`ReportError::Abandoned`]). Returns how many folders this process published before, so
+/// that a caller interrupted just after publishing knows its output is complete.
+pub fn abandon_staging() -> u64 {
+    let mut r = registry();
+    r.abandoned = true;
+    for dir in r.live.drain(..) {
+        let _ = fs::remove_dir_all(dir);
+    }
+    r.published
+}
 
 /// Marker inside a temporary folder name: `.{name}.partial-{pid}-{n}`.
 const PARTIAL: &str = "partial";
@@ -213,8 +251,13 @@ impl Staging {
         sweep_leftovers(&parent, &name);
         loop {
             let temp = temp_name(&parent, &name, PARTIAL);
+            let mut r = registry();
+            if r.abandoned {
+                return Err(ReportError::Abandoned);
+            }
             match fs::create_dir(&temp) {
                 Ok(()) => {
+                    r.live.push(temp.clone());
                     return Ok(Staging {
                         temp,
                         target: target.to_path_buf(),
@@ -222,7 +265,7 @@ impl Staging {
                         name,
                         marker: marker.to_string(),
                         published: false,
-                    })
+                    });
                 }
                 // A leftover of an earlier process that had our pid: take the next number.
                 Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => continue,
@@ -239,6 +282,10 @@ impl Staging {
     /// Moves the complete staging folder to the final name, replacing an old report if `overwrite`.
     pub(crate) fn publish(mut self, overwrite: bool) -> Result<PathBuf, ReportError> {
         sync_dir(&self.temp);
+        let mut r = registry();
+        if r.abandoned {
+            return Err(ReportError::Abandoned);
+        }
         // Checked again: another process may have written the report meanwhile.
         let exists = check_target(&self.target, &self.marker, overwrite)?;
         if exists {
@@ -251,6 +298,9 @@ impl Staging {
                 return Err(ReportError::io("rename into place", &self.target, e));
             }
             self.published = true;
+            r.published += 1;
+            r.live.retain(|d| d != &self.temp);
+            drop(r);
             sync_dir(&self.parent);
             // The new report is in place; failing to delete the old copy loses nothing, and the
             // next run sweeps it.
@@ -259,6 +309,9 @@ impl Staging {
             fs::rename(&self.temp, &self.target)
                 .map_err(|e| ReportError::io("rename into place", &self.target, e))?;
             self.published = true;
+            r.published += 1;
+            r.live.retain(|d| d != &self.temp);
+            drop(r);
             sync_dir(&self.parent);
         }
         Ok(self.target.clone())
@@ -268,6 +321,8 @@ impl Staging {
 impl Drop for Staging {
     fn drop(&mut self) {
         if !self.published {
+            let mut r = registry();
+            r.live.retain(|d| d != &self.temp);
             let _ = fs::remove_dir_all(&self.temp);
         }
     }

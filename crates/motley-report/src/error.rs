@@ -29,6 +29,9 @@ pub enum ReportError {
         /// The path given.
         path: PathBuf,
     },
+    /// The process was interrupted and gave up its staging folders (see `abandon_staging`).
+    #[error("interrupted: the output was not written")]
+    Abandoned,
     /// A file-system operation failed.
     #[error("could not {action} {}: {source}", path.display())]
     Io {

@@ -93,7 +93,7 @@ impl MarkedEventReceiver for IgnoreEvents {
     fn on_event(&mut self, _: Event, _: Marker) {}
 }
 
-fn hex(bytes: &[u8]) -> String {
+pub(crate) fn hex(bytes: &[u8]) -> String {
     bytes.iter().map(|b| format!("{b:02x}")).collect()
 }
 
