@@ -282,7 +282,7 @@ fn failed(s: &Scenario, ci: usize, e: String) -> crate::result::ClaimResult {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::fixtures::{tiny, TINY_FILE};
+    use crate::fixtures::{tiny, tiny_sampled, TINY_FILE};
     use crate::run::Shard;
 
     fn shards(s: &Scenario, count: u64) -> Vec<(String, Partial)> {
@@ -300,7 +300,7 @@ mod tests {
 
     #[test]
     fn an_emptied_shard_is_refused() {
-        let s = tiny();
+        let s = tiny_sampled();
         let plan = crate::plan::plan(&s, TINY_FILE).unwrap();
         let mut list = shards(&s, 2);
         list[1].1.slots[0].1 = plan.slots[0].accumulator(&s);

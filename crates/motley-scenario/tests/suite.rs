@@ -3,3 +3,4 @@
 mod fuzz_loader;
 mod guide;
 mod no_catch_all;
+mod partial_fuzz;
