@@ -44,7 +44,7 @@ pub struct RunArgs {
     /// The scenario.
     #[command(flatten)]
     pub source: Source,
-    /// Report folder (default: reports/<scenario name>, or reports/<name>/shard-K-of-N with --shard).
+    /// Report folder (default: reports/<scenario name>, or reports/<name>-shard-K-of-N with --shard).
     #[arg(long, value_name = "DIR")]
     pub out: Option<PathBuf>,
     /// Worker threads (default: all cores). Results do not depend on it.
@@ -60,7 +60,7 @@ pub struct RunArgs {
     /// Default: the machine's available memory (MemAvailable of /proc/meminfo; no limit elsewhere).
     #[arg(long, value_name = "SIZE")]
     pub memory_limit: Option<String>,
-    /// Replace the report folder if it exists.
+    /// Replace the report folder if it exists and motley wrote it (nothing added since).
     #[arg(long)]
     pub overwrite: bool,
     /// Continue from the checkpoint of an interrupted run.

@@ -1,5 +1,7 @@
 //! `motley merge`: the shards' partial results into the report one run would have given.
 
+use std::path::{Path, PathBuf};
+
 use motley_scenario::finish::check_partials;
 use motley_scenario::plan::plan;
 use motley_scenario::run::Partial;
@@ -9,8 +11,39 @@ use crate::exit::Failure;
 use crate::input::load_text;
 use crate::run_cmd::{report, PARTIAL_FILE, SCENARIO_FILE};
 
+/// `path` made absolute with its existing part resolved (symbolic links, `..`), so that two names
+/// of one folder compare equal.
+fn absolute(path: &Path) -> PathBuf {
+    let abs = std::path::absolute(path).unwrap_or_else(|_| path.to_path_buf());
+    let mut existing = abs.as_path();
+    let mut rest = Vec::new();
+    loop {
+        if let Ok(c) = existing.canonicalize() {
+            return rest.iter().rev().fold(c, |p: PathBuf, n| p.join(n));
+        }
+        match (existing.parent(), existing.file_name()) {
+            (Some(parent), Some(name)) => {
+                rest.push(name.to_os_string());
+                existing = parent;
+            }
+            _ => return abs,
+        }
+    }
+}
+
 /// `motley merge`.
 pub fn merge(a: MergeArgs) -> Result<(), Failure> {
+    // Merging never deletes its inputs: the report may not be, or hold, a shard folder.
+    let out_abs = absolute(&a.out);
+    for dir in &a.shards {
+        if absolute(dir).starts_with(&out_abs) {
+            return Err(Failure::BadInput(format!(
+                "shard folder {} lies inside the report folder {}; merge into another --out (shards go beside the report, not inside it)",
+                dir.display(),
+                a.out.display()
+            )));
+        }
+    }
     let mut partials: Vec<(String, Partial)> = Vec::new();
     let mut scenario: Option<(String, String)> = None;
     for dir in &a.shards {

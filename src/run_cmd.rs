@@ -5,8 +5,8 @@ use std::sync::atomic::AtomicU64;
 use std::sync::Arc;
 
 use motley_report::{
-    abandon_staging, check_destination, files, write_file_atomic, write_folder_atomic,
-    write_report, Picture, ReportError, ReportExtras,
+    abandon_staging, check_destination, files, probe_destination, write_file_atomic,
+    write_folder_atomic, write_report, Picture, ReportError, ReportExtras,
 };
 use motley_scenario::finish::finish;
 use motley_scenario::plan::{plan, Plan};
@@ -164,10 +164,11 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         )));
     }
     let out = a.out.clone().unwrap_or_else(|| {
-        let base = PathBuf::from("reports").join(&s.name);
+        // Shards go beside the report, never inside it: the merged report is written there.
+        let reports = PathBuf::from("reports");
         match shard {
-            Some(sh) => base.join(format!("shard-{}-of-{}", sh.index, sh.count)),
-            None => base,
+            Some(sh) => reports.join(format!("{}-shard-{}-of-{}", s.name, sh.index, sh.count)),
+            None => reports.join(&s.name),
         }
     });
     // The folder writer refuses an existing folder without --overwrite, and keeps one that is not
@@ -176,7 +177,15 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         Some(_) => PARTIAL_FILE,
         None => files::RESULT,
     };
-    check_destination(&out, marker, a.overwrite).map_err(report_failure)?;
+    // A folder that cannot be written is found now, not after hours of sampling.
+    let unwritable = |e: ReportError| match e {
+        ReportError::Io { .. } => Failure::BadInput(format!(
+            "cannot write the output: {e}; choose another --out"
+        )),
+        other => report_failure(other),
+    };
+    check_destination(&out, marker, a.overwrite).map_err(unwritable)?;
+    probe_destination(&out).map_err(unwritable)?;
     let shard_used = shard.unwrap_or(Shard::WHOLE);
     let cp = checkpoint_path(&out);
     let mut partial = if a.resume {

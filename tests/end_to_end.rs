@@ -5,6 +5,7 @@ mod combined_observables;
 mod committed_reports;
 mod common;
 mod interruption;
+mod output_safety;
 mod reproducibility;
 mod result_schema;
 mod theory_series;

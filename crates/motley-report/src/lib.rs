@@ -117,7 +117,8 @@ mod side;
 mod summary;
 
 pub use atomic::{
-    abandon_staging, check_destination, write_file_atomic, write_folder_atomic, write_json_atomic,
+    abandon_staging, check_destination, probe_destination, write_file_atomic, write_folder_atomic,
+    write_json_atomic, WRITTEN,
 };
 pub use error::ReportError;
 pub use extras::ReportExtras;
