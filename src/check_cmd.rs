@@ -14,7 +14,7 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
     let s = &loaded.scenario;
     let p = plan(s, &loaded.file).map_err(|e| Failure::BadInput(e.to_string()))?;
     let t = threads(a.threads)?;
-    println!(
+    say!(
         "{}: valid scenario `{}` ({} models, {} observables, {} claims)",
         loaded.file,
         s.name,
@@ -24,10 +24,10 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
     );
     for (c, exact) in s.claims.iter().zip(&p.exact) {
         let how = if *exact { "exact laws" } else { "Monte Carlo" };
-        println!("  claim {:<22} decided by {how}", c.id);
+        say!("  claim {:<22} decided by {how}", c.id);
     }
     let cost = estimate(s, &p, t);
-    println!(
+    say!(
         "estimate: {} samples in all ({} units × {}), about {} on {t} threads, peak memory about {}",
         cost.samples,
         p.units.len(),

@@ -1,6 +1,13 @@
 //! Reading a scenario (file or built-in example) into a validated scenario.
 
+use std::io::Read;
+
+use motley_scenario::validate::MAX_SAMPLES;
 use motley_scenario::Scenario;
+
+/// The largest scenario file read, in bytes (a scenario with a large `table` law is a few hundred
+/// KiB); a larger file, or an endless one such as /dev/zero, is refused at once.
+pub const MAX_SCENARIO_BYTES: u64 = 8 << 20;
 
 use crate::cli::Source;
 use crate::exit::Failure;
@@ -21,8 +28,10 @@ pub fn load_text(text: String, file: String, samples: Option<u64>) -> Result<Loa
     let mut scenario =
         motley_scenario::load_str(&text, &file).map_err(|e| Failure::BadInput(e.to_string()))?;
     if let Some(n) = samples {
-        if n == 0 {
-            return Err(Failure::BadInput("--samples must be at least 1".into()));
+        if n == 0 || n > MAX_SAMPLES {
+            return Err(Failure::BadInput(format!(
+                "--samples must be an integer in [1, 2^40] (the limit of `samples` in a scenario), got {n}"
+            )));
         }
         scenario.samples = n;
     }
@@ -42,8 +51,19 @@ pub fn load(source: &Source, samples: Option<u64>) -> Result<Loaded, Failure> {
         ),
         (Some(path), None) => {
             let file = path.display().to_string();
-            let bytes = std::fs::read(path)
-                .map_err(|e| Failure::BadInput(format!("{file}: cannot read the scenario: {e}")))?;
+            let cannot = |e: std::io::Error| {
+                Failure::BadInput(format!("{file}: cannot read the scenario: {e}"))
+            };
+            let mut bytes = Vec::new();
+            std::fs::File::open(path)
+                .and_then(|f| f.take(MAX_SCENARIO_BYTES + 1).read_to_end(&mut bytes))
+                .map_err(cannot)?;
+            if bytes.len() as u64 > MAX_SCENARIO_BYTES {
+                return Err(Failure::BadInput(format!(
+                    "{file}: larger than {} MiB, the limit of a scenario file",
+                    MAX_SCENARIO_BYTES >> 20
+                )));
+            }
             let text = String::from_utf8(bytes).map_err(|_| {
                 Failure::BadInput(format!(
                     "{file}: not a text file (invalid UTF-8); a scenario is a YAML file"

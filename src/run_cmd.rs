@@ -118,12 +118,12 @@ pub fn report(
     let dir = write_report(out, &result, &extras, overwrite).map_err(report_failure)?;
     let mut rejected = Vec::new();
     for c in &result.claims {
-        println!("{:<24} {}", c.id, c.verdict);
+        say!("{:<24} {}", c.id, c.verdict);
         if c.rejected {
             rejected.push(c.id.clone());
         }
     }
-    println!("report: {}", dir.display());
+    say!("report: {}", dir.display());
     if fail_on_reject && !rejected.is_empty() {
         return Err(Failure::Rejected(format!(
             "claims rejected: {}",
@@ -293,7 +293,7 @@ fn finish_output(
             )
             .map_err(report_failure)?;
             let (start, end) = sh.range(partial.samples);
-            println!(
+            say!(
                 "shard {}/{}: {} samples per unit written to {}",
                 sh.index,
                 sh.count,

@@ -8,5 +8,6 @@ mod interruption;
 mod output_safety;
 mod reproducibility;
 mod result_schema;
+mod small_inputs;
 mod theory_series;
 mod worked_scenarios;

@@ -18,6 +18,8 @@ use crate::validate::validate;
 /// The first problem found: empty file, not YAML, duplicate key, several documents, unknown key (with
 /// a "did you mean"), wrong type, or any range check of [`validate`].
 pub fn load_str(text: &str, file: &str) -> Result<Scenario, ScenarioError> {
+    // A UTF-8 byte-order mark (some editors write one) is not part of the YAML.
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let whole = |message: String| ScenarioError {
         file: file.to_string(),
         line: None,
@@ -65,6 +67,15 @@ pub fn load_str(text: &str, file: &str) -> Result<Scenario, ScenarioError> {
                 column: Some(at.column),
                 path: String::new(),
                 message: "a scenario file holds one YAML document, found a second `---`".into(),
+                hint: None,
+            },
+            Structure::NullValue { path, at } => ScenarioError {
+                file: file.to_string(),
+                line: Some(at.line),
+                column: Some(at.column),
+                path: path.clone(),
+                message: "has no value (null); give a value, or leave the key out for its default"
+                    .into(),
                 hint: None,
             },
         });
