@@ -1,11 +1,13 @@
 //! `motley check`: validation and a cost estimate, without running anything.
 
-use motley_scenario::cost::estimate;
+use motley_scenario::cost::{estimate, Cost};
 use motley_scenario::plan::plan;
+use motley_scenario::plan::Plan;
+use motley_scenario::Scenario;
 
 use crate::cli::CheckArgs;
 use crate::exit::Failure;
-use crate::input::{check_memory, human_bytes, load, threads};
+use crate::input::{check_memory, human_bytes, load, long_run, memory_limit, threads};
 use crate::progress::human_seconds;
 
 /// `motley check`.
@@ -14,6 +16,14 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
     let s = &loaded.scenario;
     let p = plan(s, &loaded.file).map_err(|e| Failure::BadInput(e.to_string()))?;
     let t = threads(a.threads)?;
+    let cost = estimate(s, &p, t);
+    if a.json {
+        say!(
+            "{}",
+            json(&loaded.file, s, &p, &cost, t, a.memory_limit.as_deref())?
+        );
+        return check_memory(&loaded.file, cost.bytes, a.memory_limit.as_deref());
+    }
     say!(
         "{}: valid scenario `{}` ({} models, {} observables, {} claims)",
         loaded.file,
@@ -26,7 +36,6 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
         let how = if *exact { "exact laws" } else { "Monte Carlo" };
         say!("  claim {:<22} decided by {how}", c.id);
     }
-    let cost = estimate(s, &p, t);
     say!(
         "estimate: {} samples in all ({} units × {}), about {} on {t} threads, peak memory about {}",
         cost.samples,
@@ -36,5 +45,48 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
         human_bytes(cost.bytes)
     );
     check_memory(&loaded.file, cost.bytes, a.memory_limit.as_deref())?;
+    if let Some(why) = long_run(cost.seconds, t) {
+        eprintln!("motley: warning: {why}");
+    }
     Ok(())
+}
+
+/// `check --json`: what the human lines say, for scripts (one key per line, pretty-printed).
+fn json(
+    file: &str,
+    s: &Scenario,
+    p: &Plan,
+    cost: &Cost,
+    threads: usize,
+    asked: Option<&str>,
+) -> Result<String, Failure> {
+    let limit = memory_limit(asked)?;
+    let claims: Vec<_> = s
+        .claims
+        .iter()
+        .zip(&p.exact)
+        .map(|(c, exact)| {
+            serde_json::json!({
+                "id": c.id,
+                "decided_by": if *exact { "exact" } else { "monte-carlo" },
+            })
+        })
+        .collect();
+    let v = serde_json::json!({
+        "file": file,
+        "name": s.name,
+        "models": s.models.len(),
+        "observables": s.observables.len(),
+        "claims": claims,
+        "units": p.units.len(),
+        "samples_per_side": s.samples,
+        "samples": cost.samples,
+        "threads": threads,
+        "seconds": cost.seconds,
+        "peak_bytes": cost.bytes,
+        "memory_limit_bytes": limit.map(|(b, _)| b),
+        "memory_limit_source": limit.map(|(_, w)| w),
+        "long_run": long_run(cost.seconds, threads).is_some(),
+    });
+    serde_json::to_string_pretty(&v).map_err(|e| Failure::Runtime(e.to_string()))
 }

@@ -15,7 +15,7 @@ use motley_scenario::Scenario;
 
 use crate::cli::RunArgs;
 use crate::exit::Failure;
-use crate::input::{check_memory, load, threads, Loaded};
+use crate::input::{check_memory, load, long_run, threads, Loaded};
 use crate::progress::Progress;
 use crate::stopping::{Stops, Waited};
 
@@ -148,8 +148,11 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         let (from, to) = shard.unwrap_or(Shard::WHOLE).range(s.samples);
         let mut slice = s.clone();
         slice.samples = to - from;
-        let bytes = motley_scenario::cost::estimate(&slice, &p, threads).bytes;
-        check_memory(&loaded.file, bytes, a.memory_limit.as_deref())?;
+        let cost = motley_scenario::cost::estimate(&slice, &p, threads);
+        check_memory(&loaded.file, cost.bytes, a.memory_limit.as_deref())?;
+        if let (false, Some(why)) = (a.yes, long_run(cost.seconds, threads)) {
+            return Err(Failure::BadInput(format!("{}: {why}", loaded.file)));
+        }
     }
     if !(a.checkpoint_every.is_finite() && a.checkpoint_every >= 0.0) {
         return Err(Failure::BadInput(format!(

@@ -110,3 +110,53 @@ fn progress_goes_to_a_log_when_stderr_is_not_a_terminal() {
         lines[0]
     );
 }
+
+#[test]
+fn a_run_estimated_above_a_day_needs_yes_and_check_says_so_in_json() {
+    let d = tempfile::tempdir().unwrap();
+    let f = d.path().join("huge.yaml");
+    // 2^40 samples of a 60 × 60 rectangle: years of work by any estimate.
+    std::fs::write(
+        &f,
+        SCENARIO
+            .replace("samples: 2000", "samples: 1099511627776")
+            .replace("width: 6, height: 5", "width: 60, height: 60")
+            .replace("x: 3, y: 5", "x: 30, y: 60"),
+    )
+    .unwrap();
+    let f = f.to_str().unwrap();
+    let out = d.path().join("report");
+    let r = run(&[
+        "run",
+        f,
+        "--out",
+        out.to_str().unwrap(),
+        "--memory-limit",
+        "none",
+    ]);
+    assert_eq!(r.status.code(), Some(2));
+    let msg = String::from_utf8_lossy(&r.stderr);
+    assert!(msg.contains("pass --yes to start it anyway"), "{msg}");
+    assert!(!out.exists());
+    let r = run_ok(&[
+        "check",
+        f,
+        "--json",
+        "--memory-limit",
+        "none",
+        "--threads",
+        "2",
+    ]);
+    let v: serde_json::Value = serde_json::from_slice(&r.stdout).unwrap();
+    assert_eq!(v["name"], "small");
+    assert_eq!(v["long_run"], true);
+    assert_eq!(v["threads"], 2);
+    assert_eq!(v["samples"], 1099511627776u64);
+    assert!(v["seconds"].as_f64().unwrap() > 86400.0);
+    assert!(v["peak_bytes"].as_f64().unwrap() > 0.0);
+    assert_eq!(v["memory_limit_bytes"], serde_json::Value::Null);
+    assert_eq!(v["claims"][0]["decided_by"], "monte-carlo");
+    assert!(String::from_utf8_lossy(&r.stderr).is_empty());
+    let r = run_ok(&["check", f, "--memory-limit", "none"]);
+    assert!(String::from_utf8_lossy(&r.stderr).contains("motley: warning: the run is estimated"));
+}
