@@ -61,7 +61,7 @@ fn files_under(dir: &Path) -> Result<Vec<String>, ReportError> {
             let name = format!("{prefix}{}", e.file_name().to_string_lossy());
             let kind = e
                 .file_type()
-                .map_err(|err| ReportError::io("inspect", &e.path(), err))?;
+                .map_err(|err| ReportError::io("inspect", e.path(), err))?;
             if kind.is_dir() {
                 stack.push((e.path(), format!("{name}/")));
             } else {
