@@ -6,5 +6,8 @@ cd "$(dirname "$0")/.."
 cargo build --release --quiet
 for f in scenarios/*.yaml; do
   name=$(basename "$f" .yaml)
-  ./target/release/motley run "$f" --out "reports/$name" --overwrite --quiet
+  # The script owns reports/: the old folder goes first, so that files a newer motley no longer
+  # writes (or an older one did not list in .motley-written) never block the rewrite.
+  rm -rf "reports/$name"
+  ./target/release/motley run "$f" --out "reports/$name" --quiet
 done

@@ -6,7 +6,7 @@
 #                          [--mem M] [--cpus C] [--motley PATH] [--samples S] [--wait]
 #
 # What it does:
-#   1. `motley check SCENARIO` validates the scenario and gives its name and its cost estimate.
+#   1. `motley check SCENARIO --json` validates the scenario and gives its name and its cost estimate.
 #   2. ONE `sbatch --array=1-N` job: task K runs
 #        motley run SCENARIO --shard K/N --out WORK/shard-K --threads $SLURM_CPUS_PER_TASK
 #   3. ONE merge job with `--dependency=afterok:<array job id>` (cancelled by Slurm if a shard fails):
@@ -91,29 +91,20 @@ SAMPLE_ARGS=()
 [ -z "$SAMPLES" ] || SAMPLE_ARGS=(--samples "$SAMPLES")
 
 # --- name and cost from `motley check` --------------------------------------------------------------
-CHECK=$("$MOTLEY" check "$SCENARIO" --threads "$CPUS" "${SAMPLE_ARGS[@]}") || die "motley check refused $SCENARIO (see above)"
-echo "$CHECK"
-NAME=$(printf '%s\n' "$CHECK" | sed -n 's/.*valid scenario `\([^`]*\)`.*/\1/p' | head -n 1)
-if [ -z "$NAME" ]; then
-  NAME=$(sed -n 's/^name:[[:space:]]*["'\'']\{0,1\}\([^"'\''#[:space:]]*\).*/\1/p' "$SCENARIO" | head -n 1)
-fi
-[ -n "$NAME" ] || die "cannot find the scenario's name (neither in motley check's output nor a name: line)"
-ESTIMATE=$(printf '%s\n' "$CHECK" | grep '^estimate:' | head -n 1) || die "motley check printed no estimate line"
-
-# "estimate: ... about 12.3 s on 1 threads, peak memory about 85 MiB" (units: s, min, h; MiB, GiB).
+CHECK=$("$MOTLEY" check "$SCENARIO" --json --threads "$CPUS" "${SAMPLE_ARGS[@]}") || die "motley check refused $SCENARIO (see above)"
+# `check --json` prints one top-level key per line, indented by two spaces: `  "seconds": 12.3,`.
+json_field() {
+  printf '%s\n' "$CHECK" | sed -n 's/^  "'"$1"'": "\{0,1\}\([^",]*\)"\{0,1\},\{0,1\}$/\1/p' | head -n 1
+}
+NAME=$(json_field name)
+[ -n "$NAME" ] || die "motley check --json gave no scenario name"
+ALL_SECONDS=$(json_field seconds)
+PEAK_BYTES=$(json_field peak_bytes)
+[ -n "$ALL_SECONDS" ] && [ -n "$PEAK_BYTES" ] || die "motley check --json gave no estimate"
+echo "motley check: scenario $NAME, about $ALL_SECONDS s on $CPUS threads in all, peak memory about $PEAK_BYTES bytes per process"
 # Seconds are for the whole run; a shard runs 1/N of the samples. Memory is per process.
-read -r EST_SECONDS EST_MIB < <(printf '%s\n' "$ESTIMATE" | awk -v n="$N" '{
-  for (i = 1; i < NF; i++) {
-    if ($i == "about" && $(i + 2) ~ /^(s|min|h)$/ && secs == "") {
-      f = ($(i + 2) == "s") ? 1 : (($(i + 2) == "min") ? 60 : 3600); secs = $(i + 1) * f / n
-    }
-    if ($i == "about" && $(i + 2) ~ /^(MiB|GiB),?$/) {
-      f = ($(i + 2) ~ /^GiB/) ? 1024 : 1; mib = $(i + 1) * f
-    }
-  }
-  if (secs == "" || mib == "") exit 1
-  printf "%.3f %.3f\n", secs, mib
-}') || die "cannot read time and memory from: $ESTIMATE"
+EST_SECONDS=$(awk -v s="$ALL_SECONDS" -v n="$N" 'BEGIN { printf "%.3f", s / n }')
+EST_MIB=$(awk -v b="$PEAK_BYTES" 'BEGIN { printf "%.3f", b / 1048576 }')
 
 if [ -z "$TIME" ]; then
   MINUTES=$(awk -v s="$EST_SECONDS" 'BEGIN { m = s * 3 / 60; m = (m == int(m)) ? m : int(m) + 1; if (m < 5) m = 5; print m }')
@@ -142,7 +133,7 @@ cat >"$WORK/shard.sbatch" <<EOF
 # One shard of $(q "$NAME"): array task K runs shard K/$N.
 set -euo pipefail
 K=\$SLURM_ARRAY_TASK_ID
-exec $(q "$MOTLEY") run $(q "$SCENARIO") --shard "\$K/$N" --out $(q "$WORK")/shard-"\$K" --threads "\${SLURM_CPUS_PER_TASK:-1}" --quiet$SAMPLE_Q
+exec $(q "$MOTLEY") run $(q "$SCENARIO") --shard "\$K/$N" --out $(q "$WORK")/shard-"\$K" --threads "\${SLURM_CPUS_PER_TASK:-1}" --quiet --yes$SAMPLE_Q
 EOF
 SHARD_DIRS=""
 for k in $(seq 1 "$N"); do SHARD_DIRS+=" $(q "$WORK/shard-$k")"; done

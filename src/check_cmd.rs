@@ -1,22 +1,15 @@
 //! `motley check`: validation and a cost estimate, without running anything.
 
 use motley_scenario::confirm::samples_to_confirm_claim;
-use motley_scenario::cost::estimate;
+use motley_scenario::cost::{estimate, Cost};
 use motley_scenario::plan::plan;
+use motley_scenario::plan::Plan;
+use motley_scenario::Scenario;
 
 use crate::cli::CheckArgs;
 use crate::exit::Failure;
-use crate::input::{check_memory, human_bytes, load, threads};
-
-fn human_seconds(s: f64) -> String {
-    if s < 90.0 {
-        format!("{s:.1} s")
-    } else if s < 5400.0 {
-        format!("{:.1} min", s / 60.0)
-    } else {
-        format!("{:.1} h", s / 3600.0)
-    }
-}
+use crate::input::{check_memory, human_bytes, load, long_run, memory_limit, threads};
+use crate::progress::human_seconds;
 
 /// `motley check`.
 pub fn check(a: CheckArgs) -> Result<(), Failure> {
@@ -24,7 +17,15 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
     let s = &loaded.scenario;
     let p = plan(s, &loaded.file).map_err(|e| Failure::BadInput(e.to_string()))?;
     let t = threads(a.threads)?;
-    println!(
+    let cost = estimate(s, &p, t);
+    if a.json {
+        say!(
+            "{}",
+            json(&loaded.file, s, &p, &cost, t, a.memory_limit.as_deref())?
+        );
+        return check_memory(&loaded.file, cost.bytes, a.memory_limit.as_deref());
+    }
+    say!(
         "{}: valid scenario `{}` ({} models, {} observables, {} claims)",
         loaded.file,
         s.name,
@@ -45,17 +46,16 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
             },
             _ => String::new(),
         };
-        println!("  claim {:<22} decided by {how}{confirm}", c.id);
+        say!("  claim {:<22} decided by {how}{confirm}", c.id);
     }
     if let Some(looks) = &s.looks {
         let list: Vec<String> = looks.iter().map(|n| n.to_string()).collect();
-        println!(
+        say!(
             "  sampling until decided: looks at {} samples per side",
             list.join(", ")
         );
     }
-    let cost = estimate(s, &p, t);
-    println!(
+    say!(
         "estimate: {} samples in all ({} units × {}), about {} on {t} threads, peak memory about {}",
         cost.samples,
         p.units.len(),
@@ -64,5 +64,52 @@ pub fn check(a: CheckArgs) -> Result<(), Failure> {
         human_bytes(cost.bytes)
     );
     check_memory(&loaded.file, cost.bytes, a.memory_limit.as_deref())?;
+    if let Some(why) = long_run(cost.seconds, t) {
+        eprintln!("motley: warning: {why}");
+    }
     Ok(())
+}
+
+/// `check --json`: what the human lines say, for scripts (one key per line, pretty-printed).
+fn json(
+    file: &str,
+    s: &Scenario,
+    p: &Plan,
+    cost: &Cost,
+    threads: usize,
+    asked: Option<&str>,
+) -> Result<String, Failure> {
+    let limit = memory_limit(asked)?;
+    let claims: Vec<_> = s
+        .claims
+        .iter()
+        .zip(&p.exact)
+        .enumerate()
+        .map(|(ci, (c, exact))| {
+            serde_json::json!({
+                "id": c.id,
+                "decided_by": if *exact { "exact" } else { "monte-carlo" },
+                "tolerance": c.tolerance,
+                "samples_to_confirm": if *exact { None } else { samples_to_confirm_claim(s, ci) },
+            })
+        })
+        .collect();
+    let v = serde_json::json!({
+        "file": file,
+        "name": s.name,
+        "models": s.models.len(),
+        "observables": s.observables.len(),
+        "claims": claims,
+        "units": p.units.len(),
+        "samples_per_side": s.samples,
+        "looks": s.looks,
+        "samples": cost.samples,
+        "threads": threads,
+        "seconds": cost.seconds,
+        "peak_bytes": cost.bytes,
+        "memory_limit_bytes": limit.map(|(b, _)| b),
+        "memory_limit_source": limit.map(|(_, w)| w),
+        "long_run": long_run(cost.seconds, threads).is_some(),
+    });
+    serde_json::to_string_pretty(&v).map_err(|e| Failure::Runtime(e.to_string()))
 }

@@ -44,7 +44,7 @@ pub struct RunArgs {
     /// The scenario.
     #[command(flatten)]
     pub source: Source,
-    /// Report folder (default: reports/<scenario name>, or reports/<name>/shard-K-of-N with --shard).
+    /// Report folder (default: reports/<scenario name>, or reports/<name>-shard-K-of-N with --shard).
     #[arg(long, value_name = "DIR")]
     pub out: Option<PathBuf>,
     /// Worker threads (default: all cores). Results do not depend on it.
@@ -57,10 +57,11 @@ pub struct RunArgs {
     #[arg(long, value_name = "N")]
     pub samples: Option<u64>,
     /// Refuse when the estimated peak memory exceeds SIZE (e.g. `512M`, `4G`; `none`: no limit).
-    /// Default: the machine's available memory (MemAvailable of /proc/meminfo; no limit elsewhere).
+    /// Default: the job's allowance (cgroup memory limit, else Slurm's SLURM_MEM_PER_NODE or
+    /// SLURM_MEM_PER_CPU) or the machine's available memory (MemAvailable), whichever is smaller.
     #[arg(long, value_name = "SIZE")]
     pub memory_limit: Option<String>,
-    /// Replace the report folder if it exists.
+    /// Replace the report folder if it exists and motley wrote it (nothing added since).
     #[arg(long)]
     pub overwrite: bool,
     /// Continue from the checkpoint of an interrupted run.
@@ -75,6 +76,12 @@ pub struct RunArgs {
     /// No progress bar.
     #[arg(long)]
     pub quiet: bool,
+    /// Start a run even when its estimated time exceeds 24 hours (without it such a run is refused).
+    #[arg(long)]
+    pub yes: bool,
+    /// Seconds between progress lines when stderr is not a terminal (a batch job's log).
+    #[arg(long, value_name = "SECONDS", default_value_t = 60.0)]
+    pub log_every: f64,
 }
 
 /// `motley check`.
@@ -89,8 +96,12 @@ pub struct CheckArgs {
     /// Override the sample count, as `motley run --samples` would.
     #[arg(long, value_name = "N")]
     pub samples: Option<u64>,
+    /// Print the validation and the estimate as JSON (for scripts).
+    #[arg(long)]
+    pub json: bool,
     /// Refuse when the estimated peak memory exceeds SIZE (e.g. `512M`, `4G`; `none`: no limit).
-    /// Default: the machine's available memory (MemAvailable of /proc/meminfo; no limit elsewhere).
+    /// Default: the job's allowance (cgroup memory limit, else Slurm's SLURM_MEM_PER_NODE or
+    /// SLURM_MEM_PER_CPU) or the machine's available memory (MemAvailable), whichever is smaller.
     #[arg(long, value_name = "SIZE")]
     pub memory_limit: Option<String>,
 }

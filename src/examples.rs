@@ -79,12 +79,13 @@ pub fn command(a: ExamplesArgs) -> Result<(), Failure> {
     match a.action.unwrap_or(ExamplesAction::List) {
         ExamplesAction::List => {
             for (name, text) in EXAMPLES {
-                println!("{name:<22} {}", title(text));
+                say!("{name:<22} {}", title(text));
             }
             Ok(())
         }
         ExamplesAction::Show { name } => {
-            print!("{}", find(&name)?);
+            let text = find(&name)?;
+            let _ = std::io::Write::write_all(&mut std::io::stdout().lock(), text.as_bytes());
             Ok(())
         }
         ExamplesAction::Copy { name, to } => {
@@ -105,7 +106,7 @@ pub fn command(a: ExamplesArgs) -> Result<(), Failure> {
             for (n, text) in list {
                 let path = to.join(format!("{n}.yaml"));
                 copy_one(&path, text)?;
-                println!("{}", path.display());
+                say!("{}", path.display());
             }
             Ok(())
         }

@@ -1,6 +1,15 @@
 //! The `motley` command: scenario in, report out. Glue only: arguments, loading, running, printing
 //! errors with documented exit codes (see `exit.rs`).
 
+/// `println!` that ignores a closed standard output (`motley run … | head -1`): whatever was to be
+/// written to files is written, and a reader that stopped reading is no error (and no panic).
+macro_rules! say {
+    ($($t:tt)*) => {{
+        use std::io::Write as _;
+        let _ = writeln!(std::io::stdout().lock(), $($t)*);
+    }};
+}
+
 mod check_cmd;
 mod cli;
 mod examples;
@@ -9,6 +18,7 @@ mod input;
 mod merge_cmd;
 mod progress;
 mod run_cmd;
+mod stopping;
 
 use clap::Parser;
 

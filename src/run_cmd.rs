@@ -1,24 +1,24 @@
 //! `motley run`: validate, run (with checkpoints), and write the report or the shard's partial.
 
 use std::path::{Path, PathBuf};
-use std::sync::atomic::{AtomicBool, AtomicU64};
+use std::sync::atomic::AtomicU64;
 use std::sync::Arc;
-use std::time::Instant;
 
 use motley_report::{
-    check_destination, files, write_folder_atomic, write_json_atomic, write_report, Picture,
-    ReportError, ReportExtras,
+    abandon_staging, check_destination, files, probe_destination, write_file_atomic,
+    write_folder_atomic, write_report, Picture, ReportError, ReportExtras,
 };
 use motley_scenario::finish::finish;
-use motley_scenario::plan::plan;
+use motley_scenario::plan::{plan, Plan};
 use motley_scenario::run::{advance, Partial, Shard, Workers};
 use motley_scenario::sequential::{freeze_settled, next_look};
 use motley_scenario::Scenario;
 
 use crate::cli::RunArgs;
 use crate::exit::Failure;
-use crate::input::{check_memory, load, threads, Loaded};
+use crate::input::{check_memory, load, long_run, threads, Loaded};
 use crate::progress::Progress;
+use crate::stopping::{Stops, Waited};
 
 /// The commit this binary was built from.
 pub const GIT_COMMIT: &str = env!("MOTLEY_GIT_COMMIT");
@@ -55,19 +55,24 @@ pub fn checkpoint_path(out: &Path) -> PathBuf {
     out.with_file_name(name)
 }
 
-fn read_checkpoint(path: &Path, s: &Scenario, shard: Shard) -> Result<Partial, Failure> {
+fn read_checkpoint(
+    path: &Path,
+    s: &Scenario,
+    plan: &Plan,
+    shard: Shard,
+) -> Result<Partial, Failure> {
     let shown = path.display();
     let text = std::fs::read_to_string(path).map_err(|e| {
         Failure::BadInput(format!(
             "cannot resume: no readable checkpoint at {shown} ({e})"
         ))
     })?;
-    let p: Partial = serde_json::from_str(&text).map_err(|e| {
+    let mut p = Partial::from_json(&text).map_err(|why| {
         Failure::BadInput(format!(
-            "cannot resume: checkpoint {shown} is corrupt ({e}); delete it to start over"
+            "cannot resume: checkpoint {shown} {why}; delete it to start over"
         ))
     })?;
-    p.check_resume(s, shard).map_err(|why| {
+    p.check_resume(s, plan, shard).map_err(|why| {
         Failure::BadInput(format!(
             "cannot resume: checkpoint {shown} {why}; delete it to start over"
         ))
@@ -114,12 +119,12 @@ pub fn report(
     let dir = write_report(out, &result, &extras, overwrite).map_err(report_failure)?;
     let mut rejected = Vec::new();
     for c in &result.claims {
-        println!("{:<24} {}", c.id, c.verdict);
+        say!("{:<24} {}", c.id, c.verdict);
         if c.rejected {
             rejected.push(c.id.clone());
         }
     }
-    println!("report: {}", dir.display());
+    say!("report: {}", dir.display());
     if fail_on_reject && !rejected.is_empty() {
         return Err(Failure::Rejected(format!(
             "claims rejected: {}",
@@ -144,8 +149,11 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         let (from, to) = shard.unwrap_or(Shard::WHOLE).range(s.samples);
         let mut slice = s.clone();
         slice.samples = to - from;
-        let bytes = motley_scenario::cost::estimate(&slice, &p, threads).bytes;
-        check_memory(&loaded.file, bytes, a.memory_limit.as_deref())?;
+        let cost = motley_scenario::cost::estimate(&slice, &p, threads);
+        check_memory(&loaded.file, cost.bytes, a.memory_limit.as_deref())?;
+        if let (false, Some(why)) = (a.yes, long_run(cost.seconds, threads)) {
+            return Err(Failure::BadInput(format!("{}: {why}", loaded.file)));
+        }
     }
     if !(a.checkpoint_every.is_finite() && a.checkpoint_every >= 0.0) {
         return Err(Failure::BadInput(format!(
@@ -153,11 +161,18 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
             a.checkpoint_every
         )));
     }
+    if !(a.log_every.is_finite() && a.log_every > 0.0) {
+        return Err(Failure::BadInput(format!(
+            "--log-every must be a number of seconds > 0, got {}",
+            a.log_every
+        )));
+    }
     let out = a.out.clone().unwrap_or_else(|| {
-        let base = PathBuf::from("reports").join(&s.name);
+        // Shards go beside the report, never inside it: the merged report is written there.
+        let reports = PathBuf::from("reports");
         match shard {
-            Some(sh) => base.join(format!("shard-{}-of-{}", sh.index, sh.count)),
-            None => base,
+            Some(sh) => reports.join(format!("{}-shard-{}-of-{}", s.name, sh.index, sh.count)),
+            None => reports.join(&s.name),
         }
     });
     // The folder writer refuses an existing folder without --overwrite, and keeps one that is not
@@ -166,11 +181,19 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         Some(_) => PARTIAL_FILE,
         None => files::RESULT,
     };
-    check_destination(&out, marker, a.overwrite).map_err(report_failure)?;
+    // A folder that cannot be written is found now, not after hours of sampling.
+    let unwritable = |e: ReportError| match e {
+        ReportError::Io { .. } => Failure::BadInput(format!(
+            "cannot write the output: {e}; choose another --out"
+        )),
+        other => report_failure(other),
+    };
+    check_destination(&out, marker, a.overwrite).map_err(unwritable)?;
+    probe_destination(&out).map_err(unwritable)?;
     let shard_used = shard.unwrap_or(Shard::WHOLE);
     let cp = checkpoint_path(&out);
     let mut partial = if a.resume {
-        read_checkpoint(&cp, s, shard_used)?
+        read_checkpoint(&cp, s, &p, shard_used)?
     } else {
         if cp.exists() {
             return Err(Failure::BadInput(format!(
@@ -181,100 +204,123 @@ pub fn run(a: RunArgs) -> Result<(), Failure> {
         Partial::empty(s, &p, shard_used)
     };
 
-    let stop = Arc::new(AtomicBool::new(false));
-    for sig in [signal_hook::consts::SIGINT, signal_hook::consts::SIGTERM] {
-        signal_hook::flag::register(sig, stop.clone())
-            .map_err(|e| Failure::Runtime(format!("cannot install the signal handler: {e}")))?;
-    }
+    let stops = Stops::install(a.checkpoint_every)?;
     let (start, end) = shard_used.range(s.samples);
-    let per_unit_done = Arc::new(AtomicU64::new(
-        (partial.done - start) * p.units.len() as u64,
-    ));
-    let total = (end - start) * p.units.len() as u64;
-    let counter = Arc::new(AtomicU64::new(0));
-    let bar = Progress::start(counter.clone(), total, a.quiet);
-    let mut last = Instant::now();
-    let step = ((end - start) / 50).max(motley_scenario::run::CHUNK * 8 * threads as u64);
+    let counter = Arc::new(AtomicU64::new(partial.done - start));
+    let bar = Progress::start(counter.clone(), end - start, a.quiet, a.log_every);
     let workers = Workers::new(threads).map_err(|e| Failure::Runtime(e.to_string()))?;
     // Planned looks are taken by a single process; a shard runs its slice of one look's samples.
     let looks = shard.is_none() && s.looks.is_some();
     loop {
-        let mut budget = step;
-        if looks {
-            let look = next_look(s, partial.done);
-            if partial.done == look && look < end {
-                let at_look = finish(s, &p, std::slice::from_ref(&partial), GIT_COMMIT);
-                if freeze_settled(&mut partial, &at_look) {
-                    break;
-                }
+        if looks && partial.done == next_look(s, partial.done) && partial.done < end {
+            let at_look = finish(s, &p, std::slice::from_ref(&partial), GIT_COMMIT);
+            if freeze_settled(&mut partial, &at_look) {
+                break;
             }
-            budget = budget.min(next_look(s, partial.done + 1) - partial.done);
         }
         let before = partial.done;
-        let complete = advance(
-            s,
-            &p,
-            &mut partial,
-            &workers,
-            &AtomicU64::new(0),
-            &stop,
-            Some(budget),
-        )
-        .map_err(|e| Failure::Runtime(e.to_string()))?;
-        counter.fetch_add(
-            (partial.done - before) * p.units.len() as u64,
-            std::sync::atomic::Ordering::Relaxed,
-        );
+        let budget = looks.then(|| next_look(s, partial.done + 1) - partial.done);
+        let complete = advance(s, &p, &mut partial, &workers, &counter, &stops.stop, budget)
+            .map_err(|e| Failure::Runtime(e.to_string()))?;
         if complete {
             break;
         }
-        if stop.load(std::sync::atomic::Ordering::Relaxed) {
+        if stops.interrupted() {
             drop(bar);
-            write_json_atomic(&cp, &partial).map_err(|e| Failure::Runtime(e.to_string()))?;
-            return Err(Failure::Interrupted(format!(
-                "interrupted after {} of {} samples; checkpoint written to {}; continue with the same command and --resume",
-                partial.done - start,
-                end - start,
-                cp.display()
-            )));
+            return Err(interrupted(&cp, &partial, start, end, "sampling"));
         }
-        if a.checkpoint_every > 0.0 && last.elapsed().as_secs_f64() >= a.checkpoint_every {
-            write_json_atomic(&cp, &partial).map_err(|e| Failure::Runtime(e.to_string()))?;
-            last = Instant::now();
+        if stops.take_due() {
+            // A checkpoint that cannot be written loses nothing yet: say so and go on.
+            if let Err(e) = write_file_atomic(&cp, partial.to_json().as_bytes()) {
+                eprintln!("motley: warning: checkpoint not written ({e}); the run goes on");
+            }
+        } else if partial.done == before {
+            return Err(Failure::Runtime(format!(
+                "the run made no progress at sample {} of {}; this is a bug",
+                partial.done - start,
+                end - start
+            )));
         }
     }
     drop(bar);
-    let _ = per_unit_done;
+    // The report phase (exact laws, statistics, figures, writing) runs on its own thread, so that
+    // a signal is honoured at once here: the complete partial becomes the checkpoint, and the
+    // staging folder is deleted.
+    let partial = Arc::new(partial);
+    let work = {
+        let (loaded, partial, out) = (loaded.clone(), partial.clone(), out.clone());
+        let (overwrite, fail_on_reject) = (a.overwrite, a.fail_on_reject);
+        move || finish_output(&loaded, &partial, shard, &out, overwrite, fail_on_reject)
+    };
+    let outcome = match stops.wait_for(work) {
+        Waited::Done(r) => r,
+        Waited::Interrupted(rx) => {
+            if abandon_staging() == 0 {
+                return Err(interrupted(&cp, &partial, start, end, "the report phase"));
+            }
+            // The output was complete before the signal: the rest is printing.
+            rx.recv()
+                .unwrap_or_else(|_| Err(Failure::Runtime("the report phase failed".into())))
+        }
+    };
+    outcome?;
+    let _ = std::fs::remove_file(&cp);
+    Ok(())
+}
+
+/// Writes the checkpoint of an interrupted run and the failure that ends it (exit 130).
+fn interrupted(cp: &Path, partial: &Partial, start: u64, end: u64, phase: &str) -> Failure {
+    if let Err(e) = write_file_atomic(cp, partial.to_json().as_bytes()) {
+        return Failure::Runtime(format!(
+            "interrupted during {phase}, and the checkpoint could not be written: {e}"
+        ));
+    }
+    Failure::Interrupted(format!(
+        "interrupted during {phase} after {} of {} samples; checkpoint written to {}; continue with the same command and --resume",
+        partial.done - start,
+        end - start,
+        cp.display()
+    ))
+}
+
+/// The last phase of a run: the report of a whole run, or the partial of a shard.
+fn finish_output(
+    loaded: &Loaded,
+    partial: &Partial,
+    shard: Option<Shard>,
+    out: &Path,
+    overwrite: bool,
+    fail_on_reject: bool,
+) -> Result<(), Failure> {
     match shard {
         Some(sh) => {
-            let json =
-                serde_json::to_vec_pretty(&partial).map_err(|e| Failure::Runtime(e.to_string()))?;
+            let json = partial.to_json();
             write_folder_atomic(
-                &out,
+                out,
                 &[
-                    (PARTIAL_FILE, json.as_slice()),
+                    (PARTIAL_FILE, json.as_bytes()),
                     (SCENARIO_FILE, loaded.text.as_bytes()),
                 ],
                 PARTIAL_FILE,
-                a.overwrite,
+                overwrite,
             )
             .map_err(report_failure)?;
-            println!(
+            let (start, end) = sh.range(partial.samples);
+            say!(
                 "shard {}/{}: {} samples per unit written to {}",
                 sh.index,
                 sh.count,
                 end - start,
                 out.display()
             );
+            Ok(())
         }
         None => report(
-            &loaded,
-            std::slice::from_ref(&partial),
-            &out,
-            a.overwrite,
-            a.fail_on_reject,
-        )?,
+            loaded,
+            std::slice::from_ref(partial),
+            out,
+            overwrite,
+            fail_on_reject,
+        ),
     }
-    let _ = std::fs::remove_file(&cp);
-    Ok(())
 }

@@ -233,7 +233,7 @@ fn existing_report_folder_is_refused_unless_overwrite() {
     assert_eq!(out.status.code(), Some(2), "{err}");
     assert!(
         err.starts_with(&format!(
-            "motley: {} exists and is not a motley report",
+            "motley: {} exists and is not a folder motley may replace (no .motley-written: motley did not write it)",
             foreign.display()
         )),
         "{err}"

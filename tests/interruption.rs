@@ -80,13 +80,15 @@ fn terminated_run_resumes_to_the_uninterrupted_result() {
             "1",
             "--quiet",
             "--checkpoint-every",
-            "0",
+            "0.3",
         ])
         .stdout(Stdio::null())
         .stderr(Stdio::piped())
         .spawn()
         .unwrap();
     std::thread::sleep(Duration::from_millis(1500));
+    let cp = d.path().join("report.checkpoint.json");
+    assert!(cp.is_file(), "no periodic checkpoint after 1.5 s");
     signal(child.id(), "-TERM");
     let done = child.wait_with_output().unwrap();
     let msg = String::from_utf8_lossy(&done.stderr);
@@ -97,7 +99,6 @@ fn terminated_run_resumes_to_the_uninterrupted_result() {
     );
     assert!(msg.contains("checkpoint written"), "{msg}");
     assert!(!out.exists());
-    let cp = d.path().join("report.checkpoint.json");
     assert!(cp.is_file());
 
     // Running again without --resume is refused: the checkpoint is not silently thrown away.
@@ -176,4 +177,188 @@ fn foreign_or_corrupt_checkpoints_are_refused() {
     assert_eq!(r.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&r.stderr).contains("belongs to another scenario"));
     assert!(!out.exists());
+}
+
+/// The worked scenarios with the sample counts their interruption tests run (the long ones cut so
+/// that one run takes a few seconds).
+const WORKED: &[(&str, Option<u64>)] = &[
+    ("rainbow-symmetry", None),
+    ("rainbow-near-miss", None),
+    ("second-class-tasep", Some(3000)),
+    ("packed-inverse", None),
+    ("second-third-swap", Some(3000)),
+    ("step-height", None),
+    ("tasep-tracy-widom", Some(8)),
+    ("speed-process-pair", Some(600)),
+    ("strongest-exit-table", None),
+    ("permutation-symmetry", None),
+    ("q-moments", None),
+    ("shift-invariance", None),
+    ("swap-time", None),
+];
+
+/// A scenario decided by an exact law alone, whose exact solve (uniformization of ASEP on 6 sites
+/// up to time `t`) takes about 1.5 s at t = 20000 and 7 s at t = 100000 on the project's machine.
+fn exact_only(t: u64) -> String {
+    format!(
+        "
+name: exact-slow
+seed: 1
+samples: 1000
+models:
+  seg:
+    exclusion:
+      lattice: {{segment: 6}}
+      p: \"7/10\"
+      q: \"3/10\"
+      strength: smaller-wins
+      initial: packed
+observables:
+  sigma:
+    of: seg
+    read: {{arrangement: {{time: {t}}}}}
+  sigma-inverse:
+    of: seg
+    read: {{inverse-arrangement: {{time: {t}}}}}
+claims:
+  - id: exact
+    says: \"sigma_t and its inverse have the same law\"
+    same-law: [sigma, sigma-inverse]
+"
+    )
+}
+
+/// SplitMix64 (Steele, Lea and Flood 2014): the seeded "random moment" of each interruption.
+fn splitmix(mut x: u64) -> f64 {
+    x = x.wrapping_add(0x9E37_79B9_7F4A_7C15);
+    x = (x ^ (x >> 30)).wrapping_mul(0xBF58_476D_1CE4_E5B9);
+    x = (x ^ (x >> 27)).wrapping_mul(0x94D0_49BB_1331_11EB);
+    x ^= x >> 31;
+    (x >> 11) as f64 / (1u64 << 53) as f64
+}
+
+/// Runs `file` (with `extra` arguments) once uninterrupted, then again with `sig` sent at a seeded
+/// random moment within the first 70 % of the uninterrupted run's time; asserts exit 130 within
+/// 2 s of the signal with a checkpoint and no report, resumes on one thread, and asserts the
+/// resumed report equals the uninterrupted one.
+fn interrupt_and_resume(file: &std::path::Path, extra: &[&str], sig: &str, seed: u64) {
+    let d = tempfile::tempdir().unwrap();
+    let f = file.to_str().unwrap();
+    let whole = d.path().join("whole");
+    let out = d.path().join("report");
+    let o = out.to_str().unwrap();
+    let args = |out: &str| {
+        let mut v = vec!["run", f, "--out", out, "--quiet", "--checkpoint-every", "0"];
+        v.extend_from_slice(extra);
+        v.into_iter().map(String::from).collect::<Vec<_>>()
+    };
+    let t = std::time::Instant::now();
+    run_ok(
+        &args(whole.to_str().unwrap())
+            .iter()
+            .map(String::as_str)
+            .collect::<Vec<_>>(),
+    );
+    let took = t.elapsed().as_secs_f64();
+    let at = (took * (0.15 + 0.55 * splitmix(seed))).max(0.25);
+    let child = motley()
+        .args(args(o))
+        .stdout(Stdio::null())
+        .stderr(Stdio::piped())
+        .spawn()
+        .unwrap();
+    std::thread::sleep(Duration::from_secs_f64(at));
+    signal(child.id(), sig);
+    let sent = std::time::Instant::now();
+    let done = child.wait_with_output().unwrap();
+    let waited = sent.elapsed().as_secs_f64();
+    let msg = String::from_utf8_lossy(&done.stderr);
+    assert_eq!(
+        done.status.code(),
+        Some(130),
+        "{f}: {sig} at {at:.2} s of a {took:.2} s run: {msg}"
+    );
+    assert!(waited < 2.0, "{f}: exit took {waited:.2} s after {sig}");
+    assert!(msg.contains("checkpoint written"), "{msg}");
+    assert!(!out.exists());
+    let mut resume = args(o);
+    resume.extend(["--resume", "--threads", "1"].map(String::from));
+    run_ok(&resume.iter().map(String::as_str).collect::<Vec<_>>());
+    assert_same(
+        &comparable(&out),
+        &comparable(&whole),
+        &format!("{f}: resumed after {sig} at {at:.2} s vs uninterrupted"),
+    );
+    // Nothing else is left beside the report: no checkpoint, no staging folder.
+    let mut left: Vec<String> = std::fs::read_dir(d.path())
+        .unwrap()
+        .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+        .collect();
+    left.sort();
+    assert_eq!(left, ["report", "whole"], "{f}");
+}
+
+fn worked(name: &str, samples: Option<u64>, seed: u64) {
+    let n = samples.map(|n| n.to_string());
+    let mut extra = Vec::new();
+    if let Some(n) = &n {
+        extra.extend(["--samples", n.as_str()]);
+    }
+    interrupt_and_resume(&scenario(name), &extra, "-TERM", seed);
+}
+
+#[test]
+fn a_worked_scenario_resumes_after_sigterm_to_the_same_result() {
+    worked("rainbow-symmetry", None, 17);
+}
+
+#[test]
+#[ignore = "slow tier: scripts/test-slow.sh"]
+fn every_worked_scenario_resumes_after_sigterm_to_the_same_result() {
+    assert_eq!(WORKED.len(), 13, "every worked scenario is listed");
+    for (k, (name, samples)) in WORKED.iter().enumerate() {
+        worked(name, *samples, 1000 + k as u64);
+    }
+}
+
+#[test]
+#[ignore = "slow tier: scripts/test-slow.sh"]
+fn an_exact_solve_resumes_after_sigterm_to_the_same_result() {
+    let d = tempfile::tempdir().unwrap();
+    let f = d.path().join("exact.yaml");
+    std::fs::write(&f, exact_only(60000)).unwrap();
+    interrupt_and_resume(&f, &[], "-TERM", 7);
+}
+
+/// SIGINT and SIGHUP end an exact solve (which no sample loop watches) within 2 s, with exit 130
+/// and a checkpoint, and leave no staging folder.
+#[test]
+fn sigint_and_sighup_end_an_exact_solve_at_once() {
+    for sig in ["-INT", "-HUP"] {
+        let d = tempfile::tempdir().unwrap();
+        let f = d.path().join("exact.yaml");
+        std::fs::write(&f, exact_only(40000)).unwrap();
+        let out = d.path().join("report");
+        let child = motley()
+            .args(["run", f.to_str().unwrap(), "--out", out.to_str().unwrap()])
+            .args(["--quiet"])
+            .stdout(Stdio::null())
+            .stderr(Stdio::piped())
+            .spawn()
+            .unwrap();
+        std::thread::sleep(Duration::from_millis(400));
+        signal(child.id(), sig);
+        let sent = std::time::Instant::now();
+        let done = child.wait_with_output().unwrap();
+        assert_eq!(done.status.code(), Some(130), "{sig}");
+        assert!(sent.elapsed().as_secs_f64() < 2.0, "{sig}");
+        let msg = String::from_utf8_lossy(&done.stderr);
+        assert!(msg.contains("during the report phase"), "{msg}");
+        let mut left: Vec<String> = std::fs::read_dir(d.path())
+            .unwrap()
+            .map(|e| e.unwrap().file_name().to_string_lossy().into_owned())
+            .collect();
+        left.sort();
+        assert_eq!(left, ["exact.yaml", "report.checkpoint.json"], "{sig}");
+    }
 }

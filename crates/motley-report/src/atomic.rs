@@ -11,21 +11,100 @@
 //!
 //! Replacing an existing folder takes two renames: the old folder is moved aside to
 //! `.{name}.old-{pid}-{n}`, the new one moved in, then the old one deleted. Between the two renames the
-//! final name is briefly absent, never half-written. Only a folder that looks like one of ours (it holds
-//! the marker file of its kind, `result.json` for a report, or is empty) is ever replaced, so a mistaken
-//! `--out $HOME --overwrite` deletes nothing.
+//! final name is briefly absent, never half-written.
+//!
+//! # What may be replaced
+//! Every folder written here holds [`WRITTEN`], a list of the files written into it and the kind of
+//! folder (its marker file: `result.json` for a report, `partial.json` for a shard). Only an empty
+//! folder, or a folder of the same kind whose files are all on its list, is ever replaced: a folder
+//! with a file of someone else's (notes, a shard folder put inside a report) is kept whole, so a
+//! mistaken `--out $HOME --overwrite` or `--out thesis --overwrite` deletes nothing.
+//!
+//! # Interruption
+//! Every staging folder of the process is registered while it exists. [`abandon_staging`] (called
+//! by the command-line tool when a signal arrives during the report phase) deletes them all and
+//! makes every later publication fail with [`ReportError::Abandoned`]; publication and
+//! abandonment exclude each other, so either a folder was published whole before the signal, or
+//! nothing of it is left.
 
 use std::fs;
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::sync::atomic::{AtomicU64, Ordering};
+use std::sync::Mutex;
 
 use serde::Serialize;
 
 use crate::error::ReportError;
 
+/// The file in every folder written here that lists what was written (see the module docs).
+pub const WRITTEN: &str = ".motley-written";
+
+/// The content of [`WRITTEN`].
+#[derive(Debug, Serialize, serde::Deserialize)]
+struct Written {
+    /// Always `motley`.
+    written_by: String,
+    /// The marker file of the folder's kind.
+    kind: String,
+    /// Every file written, relative to the folder, `/`-separated, sorted.
+    files: Vec<String>,
+}
+
+/// The files under `dir`, relative, `/`-separated, sorted (folders are not listed, their files are).
+fn files_under(dir: &Path) -> Result<Vec<String>, ReportError> {
+    let mut out = Vec::new();
+    let mut stack = vec![(dir.to_path_buf(), String::new())];
+    while let Some((d, prefix)) = stack.pop() {
+        for e in fs::read_dir(&d).map_err(|e| ReportError::io("read folder", &d, e))? {
+            let e = e.map_err(|e| ReportError::io("read folder", &d, e))?;
+            let name = format!("{prefix}{}", e.file_name().to_string_lossy());
+            let kind = e
+                .file_type()
+                .map_err(|err| ReportError::io("inspect", e.path(), err))?;
+            if kind.is_dir() {
+                stack.push((e.path(), format!("{name}/")));
+            } else {
+                out.push(name);
+            }
+        }
+    }
+    out.sort();
+    Ok(out)
+}
+
 /// Distinguishes temporary names made by one process.
 static COUNTER: AtomicU64 = AtomicU64::new(0);
+
+/// The staging folders of this process that exist now, whether they were abandoned, and how many
+/// folders were published; publication and abandonment hold this lock.
+static REGISTRY: Mutex<Registry> = Mutex::new(Registry {
+    live: Vec::new(),
+    abandoned: false,
+    published: 0,
+});
+
+struct Registry {
+    live: Vec<PathBuf>,
+    abandoned: bool,
+    published: u64,
+}
+
+fn registry() -> std::sync::MutexGuard<'static, Registry> {
+    REGISTRY.lock().unwrap_or_else(|e| e.into_inner())
+}
+
+/// Deletes every staging folder of this process and refuses every later publication (they fail
+/// with [`ReportError::Abandoned`]). Returns how many folders this process published before, so
+/// that a caller interrupted just after publishing knows its output is complete.
+pub fn abandon_staging() -> u64 {
+    let mut r = registry();
+    r.abandoned = true;
+    for dir in r.live.drain(..) {
+        let _ = fs::remove_dir_all(dir);
+    }
+    r.published
+}
 
 /// Marker inside a temporary folder name: `.{name}.partial-{pid}-{n}`.
 const PARTIAL: &str = "partial";
@@ -71,7 +150,8 @@ pub fn write_json_atomic<T: Serialize + ?Sized>(path: &Path, value: &T) -> Resul
 /// Missing parent folders are created. Returns `dir`.
 ///
 /// `marker` names the file that marks a folder as one of this kind (it should be among `files`): an
-/// existing `dir` is replaced only with `overwrite`, and only when it holds `marker` or is empty.
+/// existing `dir` is replaced only with `overwrite`, and only when it is empty or motley wrote it as
+/// a folder of this kind and every file in it (see the module docs).
 ///
 /// # Errors
 /// As [`check_destination`] (checked before writing and again just before the rename), and
@@ -91,16 +171,33 @@ pub fn write_folder_atomic(
 }
 
 /// Checks that a folder may be written at `dir`: it does not exist, or `overwrite` is asked and it
-/// holds the marker file `marker` of its kind or is empty. Returns whether it exists.
+/// is empty or was written by motley as a folder of kind `marker` with no file added. Returns
+/// whether it exists.
 ///
 /// # Errors
 /// - [`ReportError::NoFolderName`] if `dir` has no final component;
 /// - [`ReportError::Exists`] if `dir` exists and `overwrite` is false;
-/// - [`ReportError::NotAReport`] if `dir` exists and is neither empty nor holds `marker`;
+/// - [`ReportError::NotAReport`] if `dir` exists and is neither empty nor a folder of this kind
+///   that holds only files motley wrote (see the module docs);
 /// - [`ReportError::Io`] if `dir` cannot be inspected.
 pub fn check_destination(dir: &Path, marker: &str, overwrite: bool) -> Result<bool, ReportError> {
     split(dir)?;
     check_target(dir, marker, overwrite)
+}
+
+/// Checks, before any work, that a folder can be written at `dir`: creates its parent folders and
+/// writes and deletes a small file beside it (where the staging folder, and a checkpoint, will go).
+///
+/// # Errors
+/// [`ReportError::NoFolderName`] or [`ReportError::Io`] naming the folder that cannot be created or
+/// written.
+pub fn probe_destination(dir: &Path) -> Result<(), ReportError> {
+    let (parent, name) = split(dir)?;
+    fs::create_dir_all(&parent).map_err(|e| ReportError::io("create folder", &parent, e))?;
+    let probe = temp_name(&parent, &name, "probe");
+    let outcome = write_synced(&probe, b"motley checks that this folder is writable\n");
+    let _ = fs::remove_file(&probe);
+    outcome
 }
 
 /// Pretty JSON with a trailing newline.
@@ -176,13 +273,44 @@ fn process_gone(pid: u32) -> bool {
     proc_root.exists() && !Path::new(&format!("/proc/{pid}")).exists()
 }
 
-/// Whether an existing folder may be replaced: it holds `marker` or is empty.
-fn looks_like_ours(dir: &Path, marker: &str) -> Result<bool, ReportError> {
-    if dir.join(marker).is_file() {
-        return Ok(true);
+/// Why an existing folder may not be replaced by a folder of kind `marker`, if it may not: it must
+/// be empty, or hold [`WRITTEN`] of the same kind listing every file in it.
+fn not_ours(dir: &Path, marker: &str) -> Result<Option<String>, ReportError> {
+    let present = files_under(dir)?;
+    if present.is_empty()
+        && fs::read_dir(dir)
+            .map(|mut e| e.next().is_none())
+            .unwrap_or(false)
+    {
+        return Ok(None);
     }
-    let mut entries = fs::read_dir(dir).map_err(|e| ReportError::io("read folder", dir, e))?;
-    Ok(entries.next().is_none())
+    let Ok(text) = fs::read_to_string(dir.join(WRITTEN)) else {
+        return Ok(Some(format!("no {WRITTEN}: motley did not write it")));
+    };
+    let Ok(w) = serde_json::from_str::<Written>(&text) else {
+        return Ok(Some(format!("its {WRITTEN} is damaged")));
+    };
+    if w.kind != marker {
+        return Ok(Some(format!(
+            "motley wrote it as a folder with {}, not {marker}",
+            w.kind
+        )));
+    }
+    let foreign: Vec<&str> = present
+        .iter()
+        .map(String::as_str)
+        .filter(|f| *f != WRITTEN && !w.files.iter().any(|x| x == f))
+        .collect();
+    if !foreign.is_empty() {
+        let shown: Vec<&str> = foreign.iter().take(3).copied().collect();
+        return Ok(Some(format!(
+            "it holds {} file(s) motley did not write: {}{}",
+            foreign.len(),
+            shown.join(", "),
+            if foreign.len() > 3 { ", …" } else { "" }
+        )));
+    }
+    Ok(None)
 }
 
 /// A hidden staging folder that becomes the final folder on [`Staging::publish`]; dropped
@@ -213,8 +341,13 @@ impl Staging {
         sweep_leftovers(&parent, &name);
         loop {
             let temp = temp_name(&parent, &name, PARTIAL);
+            let mut r = registry();
+            if r.abandoned {
+                return Err(ReportError::Abandoned);
+            }
             match fs::create_dir(&temp) {
                 Ok(()) => {
+                    r.live.push(temp.clone());
                     return Ok(Staging {
                         temp,
                         target: target.to_path_buf(),
@@ -222,7 +355,7 @@ impl Staging {
                         name,
                         marker: marker.to_string(),
                         published: false,
-                    })
+                    });
                 }
                 // A leftover of an earlier process that had our pid: take the next number.
                 Err(e) if e.kind() == std::io::ErrorKind::AlreadyExists => continue,
@@ -238,7 +371,20 @@ impl Staging {
 
     /// Moves the complete staging folder to the final name, replacing an old report if `overwrite`.
     pub(crate) fn publish(mut self, overwrite: bool) -> Result<PathBuf, ReportError> {
+        let written = Written {
+            written_by: "motley".into(),
+            kind: self.marker.clone(),
+            files: files_under(&self.temp)?,
+        };
+        write_synced(
+            &self.temp.join(WRITTEN),
+            json_text(&self.temp.join(WRITTEN), &written)?.as_bytes(),
+        )?;
         sync_dir(&self.temp);
+        let mut r = registry();
+        if r.abandoned {
+            return Err(ReportError::Abandoned);
+        }
         // Checked again: another process may have written the report meanwhile.
         let exists = check_target(&self.target, &self.marker, overwrite)?;
         if exists {
@@ -251,6 +397,9 @@ impl Staging {
                 return Err(ReportError::io("rename into place", &self.target, e));
             }
             self.published = true;
+            r.published += 1;
+            r.live.retain(|d| d != &self.temp);
+            drop(r);
             sync_dir(&self.parent);
             // The new report is in place; failing to delete the old copy loses nothing, and the
             // next run sweeps it.
@@ -259,6 +408,9 @@ impl Staging {
             fs::rename(&self.temp, &self.target)
                 .map_err(|e| ReportError::io("rename into place", &self.target, e))?;
             self.published = true;
+            r.published += 1;
+            r.live.retain(|d| d != &self.temp);
+            drop(r);
             sync_dir(&self.parent);
         }
         Ok(self.target.clone())
@@ -268,6 +420,8 @@ impl Staging {
 impl Drop for Staging {
     fn drop(&mut self) {
         if !self.published {
+            let mut r = registry();
+            r.live.retain(|d| d != &self.temp);
             let _ = fs::remove_dir_all(&self.temp);
         }
     }
@@ -281,10 +435,16 @@ fn check_target(target: &Path, marker: &str, overwrite: bool) -> Result<bool, Re
         Ok(_) if !overwrite => Err(ReportError::Exists {
             path: target.to_path_buf(),
         }),
-        Ok(meta) if meta.is_dir() && looks_like_ours(target, marker)? => Ok(true),
+        Ok(meta) if meta.is_dir() => match not_ours(target, marker)? {
+            None => Ok(true),
+            Some(why) => Err(ReportError::NotAReport {
+                path: target.to_path_buf(),
+                why,
+            }),
+        },
         Ok(_) => Err(ReportError::NotAReport {
             path: target.to_path_buf(),
-            marker: marker.to_string(),
+            why: "it is not a folder".into(),
         }),
     }
 }
@@ -394,10 +554,23 @@ mod tests {
             !target.join("b.txt").exists(),
             "the old folder is replaced whole"
         );
-        // A folder without the marker is kept, even with overwrite.
+        // A folder of another kind is kept, even with overwrite.
         let err = write_folder_atomic(&target, &files, "b.txt", true).unwrap_err();
-        assert!(err.to_string().contains("(no b.txt, not empty)"), "{err}");
+        assert!(
+            err.to_string()
+                .contains("motley wrote it as a folder with a.json, not b.txt"),
+            "{err}"
+        );
         assert!(target.join("a.json").is_file());
+        // So is one with a file motley did not write.
+        fs::write(target.join("notes.txt"), b"mine").unwrap();
+        let err = write_folder_atomic(&target, &files, "a.json", true).unwrap_err();
+        assert!(
+            err.to_string()
+                .contains("it holds 1 file(s) motley did not write: notes.txt"),
+            "{err}"
+        );
+        assert_eq!(fs::read(target.join("notes.txt")).unwrap(), b"mine");
         // Nothing but the folder is left beside it.
         assert_eq!(names(target.parent().unwrap()), ["shard"]);
     }
@@ -418,7 +591,15 @@ mod tests {
             check_destination(&target, "m", true),
             Err(ReportError::NotAReport { .. })
         ));
-        fs::write(target.join("m"), b"").unwrap();
+        // A marker file alone (a `result.json` holding `{}`, say) does not make a folder ours.
+        fs::remove_file(target.join("other")).unwrap();
+        fs::write(target.join("m"), b"{}").unwrap();
+        assert!(matches!(
+            check_destination(&target, "m", true),
+            Err(ReportError::NotAReport { .. })
+        ));
+        fs::remove_dir_all(&target).unwrap();
+        write_folder_atomic(&target, &[("m", b"{}")], "m", false).unwrap();
         assert!(check_destination(&target, "m", true).unwrap());
         assert!(matches!(
             check_destination(Path::new("/"), "m", true),

@@ -13,15 +13,15 @@ pub enum ReportError {
     },
     /// Overwriting was asked for, but the existing folder does not look like a report, so it is kept.
     #[error(
-        "{} exists and is not a motley report (no {marker}, not empty); \
+        "{} exists and is not a folder motley may replace ({why}); \
          refusing to replace it even with --overwrite: choose another --out",
         path.display()
     )]
     NotAReport {
         /// The folder that was kept.
         path: PathBuf,
-        /// The file whose presence would have marked it as replaceable, e.g. `result.json`.
-        marker: String,
+        /// Why it may not be replaced.
+        why: String,
     },
     /// The report path has no final component (e.g. `/` or `..`).
     #[error("report path {} has no folder name; give a path such as reports/my-run", path.display())]
@@ -29,6 +29,9 @@ pub enum ReportError {
         /// The path given.
         path: PathBuf,
     },
+    /// The process was interrupted and gave up its staging folders (see `abandon_staging`).
+    #[error("interrupted: the output was not written")]
+    Abandoned,
     /// A file-system operation failed.
     #[error("could not {action} {}: {source}", path.display())]
     Io {

@@ -123,7 +123,10 @@ mod report;
 mod side;
 mod summary;
 
-pub use atomic::{check_destination, write_file_atomic, write_folder_atomic, write_json_atomic};
+pub use atomic::{
+    abandon_staging, check_destination, probe_destination, write_file_atomic, write_folder_atomic,
+    write_json_atomic, WRITTEN,
+};
 pub use error::ReportError;
 pub use extras::ReportExtras;
 pub use motley_scenario::picture::Picture;

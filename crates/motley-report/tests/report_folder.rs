@@ -101,14 +101,29 @@ fn overwrite_replaces_the_whole_folder() {
     let tmp = tempfile::tempdir().unwrap();
     let dir = tmp.path().join("demo");
     write_report(&dir, &common::full(), &extras(), false).unwrap();
-    fs::write(dir.join("notes-from-old-run.txt"), "old").unwrap();
     let second = common::run(vec![common::describe("only")]);
     write_report(&dir, &second, &extras(), true).unwrap();
     assert_complete(&dir, &second);
     // Nothing of the old report survives, and the moved-aside copy is gone.
-    assert!(!dir.join("notes-from-old-run.txt").exists());
     assert!(!dir.join("figures").exists());
     assert!(hidden(tmp.path()).is_empty(), "{:?}", hidden(tmp.path()));
+    // A file motley did not write keeps the folder from being replaced (issue 17).
+    fs::write(dir.join("notes-from-old-run.txt"), "old").unwrap();
+    let err = write_report(&dir, &common::full(), &extras(), true).unwrap_err();
+    assert!(matches!(err, ReportError::NotAReport { .. }), "{err}");
+    assert_eq!(
+        fs::read_to_string(dir.join("notes-from-old-run.txt")).unwrap(),
+        "old"
+    );
+    assert_complete(&dir, &second);
+    // So does a `result.json` alone: it is not proof that motley wrote the folder.
+    let fake = tmp.path().join("fake");
+    fs::create_dir(&fake).unwrap();
+    fs::write(fake.join("result.json"), "{}").unwrap();
+    fs::write(fake.join("data.csv"), "1,2").unwrap();
+    let err = write_report(&fake, &common::full(), &extras(), true).unwrap_err();
+    assert!(err.to_string().contains("motley did not write it"), "{err}");
+    assert!(fake.join("data.csv").is_file());
 }
 
 #[test]

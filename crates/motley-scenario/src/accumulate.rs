@@ -325,6 +325,78 @@ impl Accumulator {
         }
     }
 
+    /// Checks that this accumulator (read from a file) has the kind and shape of `empty` (the slot's
+    /// fresh accumulator) and holds exactly `samples` samples, with internally consistent counts.
+    ///
+    /// # Errors
+    /// What is wrong, in words.
+    pub fn check_shape(&self, empty: &Accumulator, samples: u64) -> Result<(), String> {
+        fn sum<'a>(mut m: impl Iterator<Item = &'a u64>) -> Option<u64> {
+            m.try_fold(0u64, |a, &b| a.checked_add(b))
+        }
+        let count = self.count();
+        if count != samples {
+            return Err(format!("holds {count} samples where {samples} were done"));
+        }
+        match (self, empty) {
+            (Accumulator::Set(a), Accumulator::Set(e)) => {
+                if a.universe != e.universe
+                    || a.inclusion.len() != e.universe
+                    || a.joint.is_some() != e.joint.is_some()
+                {
+                    return Err(format!(
+                        "is a set law of another universe ({}, expected {})",
+                        a.universe, e.universe
+                    ));
+                }
+                if a.inclusion.iter().any(|&k| k > a.n) {
+                    return Err("counts an element more often than there are samples".into());
+                }
+                if let Some(j) = &a.joint {
+                    let outside = j
+                        .keys()
+                        .any(|m| mask_elements(m).last().is_some_and(|&k| k > a.universe));
+                    if outside || sum(j.values()) != Some(a.n) {
+                        return Err("has a joint law that does not add up to its samples".into());
+                    }
+                }
+                if a.summaries.iter().any(|h| sum(h.values()) != Some(a.n)) {
+                    return Err("has summary laws that do not add up to its samples".into());
+                }
+                Ok(())
+            }
+            (Accumulator::Scalar(_), Accumulator::Scalar(_))
+            | (Accumulator::Pairs(_), Accumulator::Pairs(_)) => Ok(()),
+            (Accumulator::Event(a), Accumulator::Event(_)) => {
+                if a.yes > a.n {
+                    return Err("counts an event more often than there are samples".into());
+                }
+                Ok(())
+            }
+            (Accumulator::Sequence(a), Accumulator::Sequence(_)) => {
+                if sum(a.counts.values()) != Some(a.n) {
+                    return Err("has a law that does not add up to its samples".into());
+                }
+                Ok(())
+            }
+            (Accumulator::Tuple(a), Accumulator::Tuple(_)) => {
+                if sum(a.counts.values()) != Some(a.n) {
+                    return Err("has a law that does not add up to its samples".into());
+                }
+                Ok(())
+            }
+            (
+                Accumulator::Set(_)
+                | Accumulator::Scalar(_)
+                | Accumulator::Event(_)
+                | Accumulator::Sequence(_)
+                | Accumulator::Pairs(_)
+                | Accumulator::Tuple(_),
+                _,
+            ) => Err("holds values of another kind than its observable's".into()),
+        }
+    }
+
     /// Number of samples accumulated.
     pub fn count(&self) -> u64 {
         match self {

@@ -2,7 +2,7 @@
 //! them, and evaluates every claim (exact ones by exact laws).
 
 use crate::accumulate::Accumulator;
-use crate::partial_check::Mismatch;
+use crate::partial_check::{Mismatch, PartialError};
 use crate::plan::Plan;
 use crate::result::{
     ClaimKindName, ClaimResult, DecidedBy, ErrorControl, RunResult, ScenarioInfo, Timing, SCHEMA,
@@ -102,18 +102,31 @@ pub enum MergeError {
         /// Samples done.
         done: u64,
     },
+    /// A partial result that is damaged or does not fit the plan.
+    #[error("{file}: {why}")]
+    Invalid {
+        /// Where it came from.
+        file: String,
+        /// What is wrong.
+        why: PartialError,
+    },
     /// No input.
     #[error("nothing to merge")]
     Empty,
 }
 
 /// Checks that `partials` (with the files they came from) are exactly the shards of one run of `s`:
-/// one sample count, each written for `s` by this motley ([`Partial::check_origin`]), one shard count,
-/// every shard once and complete.
+/// one sample count, each written for `s` by this motley ([`Partial::check_origin`]) and fitting its
+/// plan ([`Partial::check_plan`], which puts its slots in the plan's order), one shard count, every
+/// shard once and complete.
 ///
 /// # Errors
 /// [`MergeError`] naming the offending file.
-pub fn check_partials(s: &Scenario, partials: &[(String, Partial)]) -> Result<(), MergeError> {
+pub fn check_partials(
+    s: &Scenario,
+    plan: &Plan,
+    partials: &mut [(String, Partial)],
+) -> Result<(), MergeError> {
     let Some((_, first)) = partials.first() else {
         return Err(MergeError::Empty);
     };
@@ -124,9 +137,7 @@ pub fn check_partials(s: &Scenario, partials: &[(String, Partial)]) -> Result<()
             expected: first.samples,
         });
     }
-    let count = first.shard.count;
-    let mut seen: Vec<Option<&str>> = vec![None; count as usize];
-    for (file, p) in partials {
+    for (file, p) in partials.iter_mut() {
         p.check_origin(s).map_err(|m| {
             let file = file.clone();
             match m {
@@ -144,6 +155,15 @@ pub fn check_partials(s: &Scenario, partials: &[(String, Partial)]) -> Result<()
                 },
             }
         })?;
+        p.check_plan(s, plan).map_err(|why| MergeError::Invalid {
+            file: file.clone(),
+            why,
+        })?;
+    }
+    let first = &partials[0].1;
+    let count = first.shard.count;
+    let mut seen: Vec<Option<&str>> = vec![None; count as usize];
+    for (file, p) in partials.iter() {
         if p.shard.count != count {
             return Err(MergeError::ShardCount {
                 file: file.clone(),
@@ -287,34 +307,51 @@ fn failed(s: &Scenario, ci: usize, e: String) -> crate::result::ClaimResult {
 #[cfg(test)]
 mod tests {
     use super::*;
-    use crate::fixtures::{tiny, TINY_FILE};
+    use crate::fixtures::{tiny, tiny_sampled, TINY_FILE};
     use crate::run::Shard;
 
     fn shards(s: &Scenario, count: u64) -> Vec<(String, Partial)> {
         let plan = crate::plan::plan(s, TINY_FILE).unwrap();
+        let w = crate::run::Workers::new(1).unwrap();
         (1..=count)
             .map(|index| {
                 let mut p = Partial::empty(s, &plan, Shard { index, count });
-                p.done = p.shard.range(p.samples).1;
+                let (progress, stop) = (Default::default(), Default::default());
+                crate::run::advance(s, &plan, &mut p, &w, &progress, &stop, None).unwrap();
                 (format!("shard-{index}/partial.json"), p)
             })
             .collect()
     }
 
     #[test]
+    fn an_emptied_shard_is_refused() {
+        let s = tiny_sampled();
+        let plan = crate::plan::plan(&s, TINY_FILE).unwrap();
+        let mut list = shards(&s, 2);
+        list[1].1.slots[0].1 = plan.slots[0].accumulator(&s);
+        let e = check_partials(&s, &plan, &mut list).unwrap_err();
+        assert!(
+            e.to_string().starts_with("shard-2/partial.json: slot `"),
+            "{e}"
+        );
+    }
+
+    #[test]
     fn complete_shards_of_one_run_pass() {
         let s = tiny();
-        assert_eq!(check_partials(&s, &shards(&s, 3)), Ok(()));
+        let plan = crate::plan::plan(&s, TINY_FILE).unwrap();
+        assert_eq!(check_partials(&s, &plan, &mut shards(&s, 3)), Ok(()));
     }
 
     #[test]
     fn sample_counts_must_agree_with_the_first_shard() {
         let s = tiny();
+        let plan = crate::plan::plan(&s, TINY_FILE).unwrap();
         let mut list = shards(&s, 2);
         list[1].1.samples = 50;
         // Checked before anything else, so the file with another count is named.
         list[1].1.scenario_hash = "other".into();
-        let e = check_partials(&s, &list).unwrap_err();
+        let e = check_partials(&s, &plan, &mut list).unwrap_err();
         assert_eq!(
             e.to_string(),
             "shard-2/partial.json: has 50 samples per side, the first shard has 100"
@@ -324,10 +361,11 @@ mod tests {
     #[test]
     fn a_foreign_shard_is_named_with_its_scenario() {
         let s = tiny();
+        let plan = crate::plan::plan(&s, TINY_FILE).unwrap();
         let mut list = shards(&s, 2);
         list[1].1.scenario_hash = "other".into();
         assert_eq!(
-            check_partials(&s, &list),
+            check_partials(&s, &plan, &mut list),
             Err(MergeError::Foreign {
                 file: "shard-2/partial.json".into(),
                 name: "tiny".into(),
@@ -337,7 +375,7 @@ mod tests {
         );
         list[1].1.motley_version = "0.0.0".into();
         assert!(matches!(
-            check_partials(&s, &list),
+            check_partials(&s, &plan, &mut list),
             Err(MergeError::Version { found, .. }) if found == "0.0.0"
         ));
     }

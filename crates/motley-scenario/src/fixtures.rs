@@ -25,3 +25,29 @@ claims:
 ";
     crate::load_str(text, TINY_FILE).unwrap()
 }
+
+/// Scenario [`tiny`] decided by Monte Carlo (`exact: off`), so that its plan has a slot to fill.
+pub(crate) fn tiny_sampled() -> Scenario {
+    let text = "
+name: tiny-sampled
+seed: 3
+samples: 100
+exact: off
+models:
+  rect:
+    six-vertex: {width: 5, height: 4, b1: 0.4, b2: 0.6, left: rainbow, bottom: empty}
+observables:
+  top:
+    of: rect
+    read: {top: colors}
+  h:
+    of: rect
+    read: {height: {x: 3, y: 4}}
+claims:
+  - id: look
+    describe: top
+  - id: height
+    describe: h
+";
+    crate::load_str(text, TINY_FILE).unwrap()
+}

@@ -18,6 +18,8 @@ use crate::validate::validate;
 /// The first problem found: empty file, not YAML, duplicate key, several documents, unknown key (with
 /// a "did you mean"), wrong type, or any range check of [`validate`].
 pub fn load_str(text: &str, file: &str) -> Result<Scenario, ScenarioError> {
+    // A UTF-8 byte-order mark (some editors write one) is not part of the YAML.
+    let text = text.strip_prefix('\u{feff}').unwrap_or(text);
     let whole = |message: String| ScenarioError {
         file: file.to_string(),
         line: None,
@@ -67,6 +69,15 @@ pub fn load_str(text: &str, file: &str) -> Result<Scenario, ScenarioError> {
                 message: "a scenario file holds one YAML document, found a second `---`".into(),
                 hint: None,
             },
+            Structure::NullValue { path, at } => ScenarioError {
+                file: file.to_string(),
+                line: Some(at.line),
+                column: Some(at.column),
+                path: path.clone(),
+                message: "has no value (null); give a value, or leave the key out for its default"
+                    .into(),
+                hint: None,
+            },
         });
     }
     // Enums are written as one-key maps (`step: 3`), not YAML tags: hence `singleton_map_recursive`.
@@ -93,7 +104,7 @@ impl MarkedEventReceiver for IgnoreEvents {
     fn on_event(&mut self, _: Event, _: Marker) {}
 }
 
-fn hex(bytes: &[u8]) -> String {
+pub(crate) fn hex(bytes: &[u8]) -> String {
     bytes.iter().map(|b| format!("{b:02x}")).collect()
 }
 

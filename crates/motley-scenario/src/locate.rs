@@ -38,6 +38,14 @@ pub enum Structure {
         /// Start of the second document.
         at: Position,
     },
+    /// A key whose value is null (`alpha:`, `alpha: ~`, `alpha: null`): never a default in
+    /// disguise, always refused.
+    NullValue {
+        /// Path of the key.
+        path: String,
+        /// Where the null value is.
+        at: Position,
+    },
 }
 
 /// Positions of every key path of a file.
@@ -152,7 +160,7 @@ impl MarkedEventReceiver for Walker {
                     });
                 }
             }
-            Event::Scalar(text, ..) => {
+            Event::Scalar(text, style, ..) => {
                 if let Some(Frame::Map {
                     path,
                     expecting_key: true,
@@ -177,7 +185,16 @@ impl MarkedEventReceiver for Walker {
                         *expecting_key = false;
                     }
                 } else {
-                    let _ = self.value_path(&mark);
+                    let in_map = matches!(self.stack.last(), Some(Frame::Map { .. }));
+                    let path = self.value_path(&mark);
+                    let null = style == yaml_rust2::scanner::TScalarStyle::Plain
+                        && matches!(text.as_str(), "" | "~" | "null" | "Null" | "NULL");
+                    if let (true, true, Some(path)) = (in_map, null, path) {
+                        self.problems.push(Structure::NullValue {
+                            path,
+                            at: position(&mark),
+                        });
+                    }
                 }
             }
             Event::Alias(_) => {

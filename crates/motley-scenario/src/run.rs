@@ -7,24 +7,26 @@
 //! only decide who computes which index; the accumulators merge exactly, so the result is the same
 //! for every thread count and shard split.
 
+use std::collections::BTreeMap;
 use std::sync::atomic::{AtomicBool, AtomicU64, Ordering};
+use std::sync::Mutex;
 use std::time::Instant;
 
-use rayon::prelude::*;
 use serde::{Deserialize, Serialize};
+use sha2::Digest;
 
 use crate::accumulate::Accumulator;
 use crate::combination::Combination;
 use crate::family::{read_by_family, UnitSampler, Value};
 use crate::plan::Plan;
 use crate::scenario::{ObservableSpec, ReadSpec, Scenario};
-use crate::unit::{Slot, Unit};
+use crate::unit::Unit;
 
 /// Largest number of samples per work chunk: the grain of parallelism, progress and checkpoints.
 pub const CHUNK: u64 = 256;
 
 /// Schema name of partial (shard or checkpoint) files.
-pub const PARTIAL_SCHEMA: &str = "motley-partial/1";
+pub const PARTIAL_SCHEMA: &str = "motley-partial/2";
 
 /// Which slice of the samples to run.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Serialize, Deserialize)]
@@ -63,8 +65,8 @@ pub struct Partial {
     pub shard: Shard,
     /// Sample indices finished, from the shard's start: `[start, done)`.
     pub done: u64,
-    /// Accumulators by slot.
-    pub slots: Vec<(Slot, Accumulator)>,
+    /// Accumulators by slot name ([`crate::unit::Slot::name`]), in the order of the plan's slots.
+    pub slots: Vec<(String, Accumulator)>,
     /// Seconds spent.
     pub wall_seconds: f64,
     /// Threads used.
@@ -72,6 +74,10 @@ pub struct Partial {
     /// In a sequential run, the claims settled at an earlier look, as that look decided them.
     #[serde(default)]
     pub settled: Vec<crate::result::ClaimResult>,
+    /// SHA-256 (hex) of the file's content with this field empty; set by [`Partial::to_json`],
+    /// checked when read (`partial_check`).
+    #[serde(default)]
+    pub digest: String,
 }
 
 impl Partial {
@@ -89,12 +95,30 @@ impl Partial {
             slots: plan
                 .slots
                 .iter()
-                .map(|sl| (*sl, sl.accumulator(s)))
+                .map(|sl| (sl.name(s), sl.accumulator(s)))
                 .collect(),
             wall_seconds: 0.0,
             threads: 0,
             settled: Vec::new(),
+            digest: String::new(),
         }
+    }
+
+    /// The digest of this partial's content: SHA-256 (hex) of its compact JSON with `digest` empty.
+    pub fn content_digest(&self) -> String {
+        let mut plain = self.clone();
+        plain.digest.clear();
+        let bytes = serde_json::to_vec(&plain).expect("a partial serializes");
+        crate::load::hex(&sha2::Sha256::digest(&bytes))
+    }
+
+    /// This partial as the JSON text of a checkpoint or shard file, with its digest.
+    pub fn to_json(&self) -> String {
+        let mut sealed = self.clone();
+        sealed.digest = self.content_digest();
+        let mut text = serde_json::to_string_pretty(&sealed).expect("a partial serializes");
+        text.push('\n');
+        text
     }
 
     /// Whether every sample of the shard is in.
@@ -149,14 +173,25 @@ fn sampler<'a>(
         })
 }
 
-/// Runs sample indices `[from, to)` of every unit of `plan` and returns the accumulators, in the
-/// order of `plan.slots`. Combined observables are computed from their components' numbers of the
-/// same sample ([`Combination::value`], as in exact mode).
-fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumulator>, RunError> {
-    let mut out: Vec<Accumulator> = plan.slots.iter().map(|sl| sl.accumulator(s)).collect();
-    for u in &plan.units {
+/// One unit's sampler and the places its values go while a range of samples runs.
+struct UnitRun<'a> {
+    seed: u64,
+    sampler: Box<dyn UnitSampler + 'a>,
+    /// Where the unit's observables go among `plan.slots`.
+    positions: Vec<usize>,
+    /// The unit's accumulators, in the order of its observables.
+    local: Vec<Accumulator>,
+    /// Where each family read-out's value goes (its place among the unit's observables).
+    direct: Vec<Option<usize>>,
+    /// The combinations with the places of their components among the read-outs.
+    combined: Vec<(usize, &'a ObservableSpec, &'a Combination, Vec<usize>)>,
+    numbers: Vec<f64>,
+}
+
+impl<'a> UnitRun<'a> {
+    fn new(s: &'a Scenario, plan: &Plan, u: &Unit) -> Result<Self, RunError> {
         let base = family_reads(s, u);
-        let mut smp = sampler(s, u, &base)?;
+        let sampler = sampler(s, u, &base)?;
         let positions: Vec<usize> = u
             .observables
             .iter()
@@ -169,14 +204,15 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
                     .expect("every unit observable has a slot")
             })
             .collect();
-        let mut local: Vec<Accumulator> = positions.iter().map(|&p| out[p].clone()).collect();
-        // Where each family read-out's value goes (its place among the unit's observables), and
-        // the combinations with the places of their components among the read-outs.
-        let direct: Vec<Option<usize>> = base
+        let local = positions
+            .iter()
+            .map(|&p| plan.slots[p].accumulator(s))
+            .collect();
+        let direct = base
             .iter()
             .map(|b| u.observables.iter().position(|o| o == b))
             .collect();
-        let combined: Vec<(usize, &ObservableSpec, &Combination, Vec<usize>)> = u
+        let combined = u
             .observables
             .iter()
             .enumerate()
@@ -195,24 +231,74 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
                 }
             })
             .collect();
-        let mut numbers = vec![0.0f64; base.len()];
-        let (mut x, mut buf) = (Vec::new(), Vec::new());
-        for i in from..to {
-            smp.sample(u.seed, i, &mut |k, v| {
-                if let Value::Number(y) = v {
-                    numbers[k] = y;
-                }
-                if let Some(p) = direct[k] {
-                    local[p].add(v);
-                }
-            });
-            for (k, obs, c, parts) in &combined {
-                x.clear();
-                x.extend(parts.iter().map(|&j| numbers[j]));
-                local[*k].add(c.value(&x, |y| obs.number(y), &mut buf));
+        Ok(UnitRun {
+            seed: u.seed,
+            sampler,
+            positions,
+            local,
+            direct,
+            combined,
+            numbers: vec![0.0; base.len()],
+        })
+    }
+
+    /// Draws sample `i` into the unit's accumulators. Combined observables are computed from their
+    /// components' numbers of the same sample ([`Combination::value`], as in exact mode).
+    fn sample(&mut self, i: u64, x: &mut Vec<f64>, buf: &mut Vec<f64>) {
+        let (numbers, direct, local) = (&mut self.numbers, &self.direct, &mut self.local);
+        self.sampler.sample(self.seed, i, &mut |k, v| {
+            if let Value::Number(y) = v {
+                numbers[k] = y;
             }
+            if let Some(p) = direct[k] {
+                local[p].add(v);
+            }
+        });
+        for (k, obs, c, parts) in &self.combined {
+            x.clear();
+            x.extend(parts.iter().map(|&j| self.numbers[j]));
+            self.local[*k].add(c.value(x, |y| obs.number(y), buf));
         }
-        for (acc, &p) in local.into_iter().zip(&positions) {
+    }
+}
+
+/// Runs sample indices `[from, to)` of every unit of `plan`, sample by sample (every unit draws
+/// sample `i` before any draws `i + 1`), and returns the index reached and the accumulators, in
+/// the order of `plan.slots`. Before each sample it looks at `stop`: when raised, it returns
+/// early, and the accumulators hold exactly the samples `[from, reached)`. Finished samples are
+/// added to `progress` in small batches.
+fn run_range(
+    s: &Scenario,
+    plan: &Plan,
+    (from, to): (u64, u64),
+    stop: &AtomicBool,
+    progress: &AtomicU64,
+) -> Result<(u64, Vec<Accumulator>), RunError> {
+    let mut out: Vec<Accumulator> = plan.slots.iter().map(|sl| sl.accumulator(s)).collect();
+    let mut units = plan
+        .units
+        .iter()
+        .map(|u| UnitRun::new(s, plan, u))
+        .collect::<Result<Vec<_>, _>>()?;
+    let (mut x, mut buf) = (Vec::new(), Vec::new());
+    // A chunk is a fraction of a second of work (see `advance`); a sixteenth of it per progress
+    // update keeps the counter current without contention on cheap samples.
+    let batch = ((to - from) / 16).max(1);
+    let (mut reached, mut unreported) = (from, 0u64);
+    while reached < to && !stop.load(Ordering::Relaxed) {
+        for u in &mut units {
+            u.sample(reached, &mut x, &mut buf);
+        }
+        reached += 1;
+        unreported += 1;
+        if unreported >= batch {
+            progress.fetch_add(unreported, Ordering::Relaxed);
+            unreported = 0;
+        }
+    }
+    progress.fetch_add(unreported, Ordering::Relaxed);
+    for u in units {
+        for (acc, &p) in u.local.into_iter().zip(&u.positions) {
             out[p] = acc;
         }
     }
@@ -239,7 +325,7 @@ fn run_range(s: &Scenario, plan: &Plan, from: u64, to: u64) -> Result<Vec<Accumu
             p.values = pairs;
         }
     }
-    Ok(out)
+    Ok((reached, out))
 }
 
 /// The worker threads of a run, started once and used by every call of [`advance`].
@@ -266,8 +352,92 @@ impl Workers {
     }
 }
 
-/// Continues `partial` for up to `budget` more samples (all remaining when `None`) on `workers`, adding finished samples to `progress` and stopping early (at a chunk boundary) when
-/// `stop` is raised. Returns whether the shard is complete.
+/// Work per chunk that [`advance`] aims at, in seconds: short enough that the finished prefix stays
+/// close behind the work in flight (an interruption loses at most about this much per thread).
+const CHUNK_SECONDS: f64 = 0.2;
+
+/// The chunks of one [`advance`] call: handed out in index order, merged in index order.
+struct Dispatch<'a> {
+    /// Next index to hand out, and the current chunk length.
+    cursor: Mutex<(u64, u64)>,
+    /// Merged accumulators of the finished prefix `[start, frontier)`, the chunks finished beyond
+    /// it (by first index: reached index, planned end, accumulators), and whether the prefix is
+    /// closed (a chunk stopped short, so nothing after it may join).
+    merged: Mutex<Merged<'a>>,
+    until: u64,
+    threads: u64,
+}
+
+struct Merged<'a> {
+    slots: &'a mut [(String, Accumulator)],
+    frontier: u64,
+    waiting: BTreeMap<u64, (u64, u64, Vec<Accumulator>)>,
+    closed: bool,
+    error: Option<RunError>,
+}
+
+impl Dispatch<'_> {
+    /// The next chunk, or `None` when all are handed out or the run stops.
+    fn take(&self, stop: &AtomicBool, failed: &AtomicBool) -> Option<(u64, u64)> {
+        if stop.load(Ordering::Relaxed) || failed.load(Ordering::Relaxed) {
+            return None;
+        }
+        let mut c = self.cursor.lock().unwrap_or_else(|e| e.into_inner());
+        let (next, grain) = *c;
+        if next >= self.until {
+            return None;
+        }
+        // Near the end, chunks shrink so that every thread gets a share.
+        let len = grain.min((self.until - next).div_ceil(self.threads)).max(1);
+        c.0 = next + len;
+        Some((next, next + len))
+    }
+
+    /// Adapts the chunk length to the time a chunk of `len` samples took: the layout of chunks
+    /// changes no result (merges are exact), only how soon a stop and a checkpoint take effect.
+    fn tune(&self, len: u64, seconds: f64) {
+        let mut c = self.cursor.lock().unwrap_or_else(|e| e.into_inner());
+        if len >= c.1 && seconds < CHUNK_SECONDS / 2.0 {
+            c.1 = (c.1 * 2).min(CHUNK);
+        } else if seconds > CHUNK_SECONDS * 2.0 {
+            c.1 = (c.1 / 2).max(1);
+        }
+    }
+
+    /// Records a finished (or stopped) chunk and merges every chunk that now continues the prefix.
+    fn finish(&self, a: u64, b: u64, outcome: Result<(u64, Vec<Accumulator>), RunError>) {
+        let mut m = self.merged.lock().unwrap_or_else(|e| e.into_inner());
+        match outcome {
+            Err(e) => {
+                m.closed = true;
+                m.error.get_or_insert(e);
+            }
+            Ok((reached, accs)) => {
+                m.waiting.insert(a, (reached, b, accs));
+            }
+        }
+        while !m.closed {
+            let f = m.frontier;
+            let Some((reached, end, accs)) = m.waiting.remove(&f) else {
+                break;
+            };
+            for ((_, acc), add) in m.slots.iter_mut().zip(&accs) {
+                acc.merge(add);
+            }
+            m.frontier = reached;
+            m.closed = reached < end;
+        }
+    }
+}
+
+/// Continues `partial` for up to `budget` more samples (all remaining when `None`) on `workers`,
+/// adding finished samples to `progress`. Returns whether the shard is complete.
+///
+/// Chunks of consecutive indices are handed out in order and merged in order; their length adapts
+/// so that each takes about [`CHUNK_SECONDS`]. `stop` is looked at before every sample: once it is
+/// raised, the call returns within one sample per thread, and `partial` holds exactly the finished
+/// prefix of indices `[start, done)` (samples finished beyond the first unfinished one are
+/// dropped), so a checkpoint of it continues to the same result.
 ///
 /// # Errors
 /// [`RunError`] if an engine cannot be built.
@@ -282,47 +452,51 @@ pub fn advance(
 ) -> Result<bool, RunError> {
     let started = Instant::now();
     let (_, end) = partial.shard.range(s.samples);
+    // A partial that claims more than its shard is refused when read (`partial_check`); here it
+    // simply has nothing left to do.
+    let from = partial.done.min(end);
     let until = match budget {
-        Some(b) => (partial.done + b).min(end),
+        Some(b) => from.saturating_add(b).min(end),
         None => end,
     };
     let threads = workers.threads();
-    // Work proceeds in rounds of a few chunks per thread, so that a stop request is honoured soon
-    // and every round ends on a chunk boundary that a checkpoint can record.
-    // Chunks shrink when few samples remain, so that every thread gets work even in a run of a
-    // few expensive samples; the chunk layout changes no result (merges are exact).
-    let chunk = (until - partial.done)
-        .div_ceil(8 * threads as u64)
-        .clamp(1, CHUNK);
-    let round = chunk * 8 * threads as u64;
-    while partial.done < until {
-        if stop.load(Ordering::Relaxed) {
-            break;
-        }
-        let lo = partial.done;
-        let hi = (lo + round).min(until);
-        let chunks: Vec<(u64, u64)> = (lo..hi)
-            .step_by(chunk as usize)
-            .map(|a| (a, (a + chunk).min(hi)))
-            .collect();
-        let results: Vec<Result<Vec<Accumulator>, RunError>> = workers.pool.install(|| {
-            chunks
-                .par_iter()
-                .map(|&(a, b)| {
-                    let r = run_range(s, plan, a, b);
-                    progress.fetch_add(b - a, Ordering::Relaxed);
-                    r
-                })
-                .collect()
-        });
-        for r in results {
-            let accs = r?;
-            for ((_, acc), add) in partial.slots.iter_mut().zip(&accs) {
-                acc.merge(add);
+    let dispatch = Dispatch {
+        cursor: Mutex::new((from, 1)),
+        merged: Mutex::new(Merged {
+            slots: &mut partial.slots,
+            frontier: from,
+            waiting: BTreeMap::new(),
+            closed: false,
+            error: None,
+        }),
+        until,
+        threads: threads as u64,
+    };
+    // A failed chunk stops the handing out of others.
+    let failed = AtomicBool::new(false);
+    if from < until {
+        workers.pool.broadcast(|_| {
+            while let Some((a, b)) = dispatch.take(stop, &failed) {
+                let t = Instant::now();
+                let outcome = run_range(s, plan, (a, b), stop, progress);
+                if outcome.is_err() {
+                    failed.store(true, Ordering::Relaxed);
+                } else {
+                    dispatch.tune(b - a, t.elapsed().as_secs_f64());
+                }
+                dispatch.finish(a, b, outcome);
             }
-        }
-        partial.done = hi;
+        });
     }
+    let merged = dispatch
+        .merged
+        .into_inner()
+        .unwrap_or_else(|e| e.into_inner());
+    let (frontier, error) = (merged.frontier, merged.error);
+    if let Some(e) = error {
+        return Err(e);
+    }
+    partial.done = partial.done.max(frontier);
     for (_, acc) in partial.slots.iter_mut() {
         acc.canonicalize();
     }

@@ -54,6 +54,21 @@ pub struct Slot {
 }
 
 impl Slot {
+    /// The slot's name in partial results: the observable's name, `+partner` for a pair slot, and
+    /// `#replica` for a replica other than 0 (`top`, `a+b`, `h#1`). Partial results match slots by
+    /// this name, never by position.
+    pub fn name(&self, s: &Scenario) -> String {
+        let mut n = s.observables[self.observable].name.clone();
+        if let Some(b) = self.partner {
+            n.push('+');
+            n.push_str(&s.observables[b].name);
+        }
+        if self.replica != 0 {
+            n.push_str(&format!("#{}", self.replica));
+        }
+        n
+    }
+
     /// The empty accumulator this slot holds.
     pub fn accumulator(&self, s: &Scenario) -> crate::accumulate::Accumulator {
         match self.partner {

@@ -18,6 +18,9 @@ use crate::scenario::*;
 /// Validates `raw` (read from `file`, located by `locations`); `hash` is the file's SHA-256.
 ///
 /// # Errors
+/// The largest sample count of a scenario (in the file or on the command line).
+pub const MAX_SAMPLES: u64 = 1 << 40;
+
 /// The first problem found, as a located [`ScenarioError`].
 pub fn validate(
     raw: &RawScenario,
@@ -27,7 +30,7 @@ pub fn validate(
 ) -> Result<Scenario, ScenarioError> {
     let ck = Checker { file, locations };
     ck.name("name", &raw.name)?;
-    if raw.samples == 0 || raw.samples > 1u64 << 40 {
+    if raw.samples == 0 || raw.samples > MAX_SAMPLES {
         return Err(ck.error(
             "samples",
             format!("must be an integer in [1, 2^40], got {}", raw.samples),
@@ -283,6 +286,11 @@ fn model(
             let b2 = ck.probability(&format!("{p}.b2"), &s.b2)?;
             let left = boundary(ck, &format!("{p}.left"), &s.left, height, &color)?;
             let bottom = boundary(ck, &format!("{p}.bottom"), &s.bottom, width, &color)?;
+            // What the engine cannot draw is refused here, located, not when the run starts.
+            for (key, b) in [("left", &left), ("bottom", &bottom)] {
+                crate::six_vertex_unit::side(b)
+                    .map_err(|message| ck.error(&format!("{p}.{key}.bernoulli.color"), message))?;
+            }
             if !times.is_empty() {
                 times.clear();
             }

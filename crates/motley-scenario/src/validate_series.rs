@@ -136,6 +136,13 @@ pub(crate) fn series(
             Some(l)
         }
     };
+    if c.limit.is_some() && c.profile.is_some() {
+        // The figure draws one theory line; a second one would be dropped silently.
+        return Err(ck.error(
+            &format!("{path}.limit"),
+            "`limit` and `profile` both give the theory line of a series; give one of them",
+        ));
+    }
     let profile = match &c.profile {
         None => None,
         Some(name) => Some(profile(

@@ -4,3 +4,4 @@ mod calibration;
 mod fuzz_loader;
 mod guide;
 mod no_catch_all;
+mod partial_fuzz;
