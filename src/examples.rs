@@ -37,6 +37,10 @@ pub const EXAMPLES: &[(&str, &str)] = &[
         include_str!("../scenarios/speed-process-pair.yaml"),
     ),
     (
+        "sampling-until-decided",
+        include_str!("../scenarios/sampling-until-decided.yaml"),
+    ),
+    (
         "strongest-exit-table",
         include_str!("../scenarios/strongest-exit-table.yaml"),
     ),

@@ -191,6 +191,7 @@ const WORKED: &[(&str, Option<u64>)] = &[
     ("tasep-tracy-widom", Some(8)),
     ("speed-process-pair", Some(600)),
     ("strongest-exit-table", None),
+    ("sampling-until-decided", None),
     ("permutation-symmetry", None),
     ("q-moments", None),
     ("shift-invariance", None),

@@ -93,6 +93,26 @@ fn packed_inverse_holds_exactly_and_by_monte_carlo() {
 }
 
 #[test]
+fn a_near_miss_stops_at_the_first_look_and_the_identity_is_confirmed_later() {
+    let (_dir, _, v) = run_report("sampling-until-decided", &[]);
+    let claims = v["claims"].as_array().unwrap();
+    let row = |i: usize| {
+        (
+            claims[i]["id"].as_str().unwrap().to_string(),
+            claims[i]["decision"].as_str().unwrap().to_string(),
+            claims[i]["look"].as_u64().unwrap(),
+            claims[i]["samples"].as_u64().unwrap(),
+        )
+    };
+    assert_eq!(row(0), ("symmetry".into(), "equal-within".into(), 3, 64000));
+    assert_eq!(row(1), ("near-miss".into(), "rejected".into(), 1, 4000));
+    let q = &v["sequential"];
+    assert_eq!(q["looks"], serde_json::json!([4000, 16000, 64000]));
+    assert_eq!(q["stopped"], "all-decided");
+    assert_eq!(q["samples_used"], 64000);
+}
+
+#[test]
 fn tables_and_means_decide_both_ways() {
     let v = verdicts("strongest-exit-table", &[]);
     let expected = [
