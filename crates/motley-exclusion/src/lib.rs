@@ -113,7 +113,9 @@ pub use law::{total_variation, Law};
 pub use line_data::LineData;
 pub use line_process::{LineProcess, LINE_STREAM};
 pub use motley_colorblind::Color;
-pub use multiline_queue::{multiline_queue_law, StationarySampler, STATIONARY_STREAM};
+pub use multiline_queue::{
+    multiline_queue_law, multiline_queue_work, StationarySampler, MAX_QUEUE_WORK, STATIONARY_STREAM,
+};
 pub use rates::Rates;
 pub use readout::{Reading, Readings, Readout, ReadoutPlan, MAX_WINDOW};
 pub use sparse_exact::{SparseLaw, SparseSize, SparseSolver, MAX_EXACT_BYTES, MAX_SPARSE_STATES};

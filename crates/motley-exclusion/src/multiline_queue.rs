@@ -34,6 +34,7 @@ use motley_colorblind::Color;
 use motley_stream::sample_stream;
 use num_bigint::BigUint;
 
+use crate::multiset::color_counts;
 use crate::words::Words;
 use crate::{ExclusionError, FiniteLattice, FiniteSystem, Rates};
 
@@ -82,13 +83,11 @@ impl Rows {
             ));
         };
         let colors = system.colors();
-        let mut values = colors.to_vec();
-        values.sort_unstable();
-        values.dedup();
+        let (values, counts) = color_counts(colors);
         let mut sizes = Vec::new();
         let mut acc = 0;
-        for v in values.iter().rev().take(values.len().saturating_sub(1)) {
-            acc += colors.iter().filter(|&&c| c == *v).count();
+        for &m in counts.iter().rev().take(counts.len().saturating_sub(1)) {
+            acc += m as usize;
             sizes.push(acc);
         }
         Ok(Rows {
@@ -97,6 +96,25 @@ impl Rows {
             n: colors.len(),
             look,
         })
+    }
+
+    /// Queue services of the exact count: the arrangements of the first `r` rows (at most
+    /// `∏_{j ≤ r} C(n, a_j)`) times the sets of row `r + 1`, times `n`.
+    fn work(&self) -> f64 {
+        let mut work = 0.0;
+        // Distinct arrangements of the rows so far: C(n, a_r) placements of the a_r particles
+        // times their class orders a_r! / ∏ m_j! (built as ∏ C(a_j, m_j)).
+        let mut level = 1.0f64;
+        let mut orders = 1.0f64;
+        let mut previous = 0;
+        for &a in &self.sizes {
+            let sets = binomial(self.n, a);
+            work += level * sets * self.n as f64;
+            orders *= binomial(a, a - previous);
+            level = sets * orders;
+            previous = a;
+        }
+        work
     }
 
     /// The class code of row `r` (0-based) in the engine's order: row 0 is the strongest.
@@ -200,16 +218,7 @@ pub fn multiline_queue_law(
 ) -> Result<(Vec<(Vec<Color>, BigUint)>, BigUint), ExclusionError> {
     let rows = Rows::new(system, rates)?;
     let n = rows.n;
-    // Work: the level-r arrangements (at most a multinomial) times the sets of the next row.
-    let mut work = 0.0;
-    let mut level = 1.0;
-    for (r, &a) in rows.sizes.iter().enumerate() {
-        let sets = binomial(n, a);
-        work += level * sets * n as f64;
-        level = (level * sets).min(f64::MAX);
-        let _ = r;
-    }
-    if work > MAX_QUEUE_WORK {
+    if rows.work() > MAX_QUEUE_WORK {
         return Err(ExclusionError::NoStationaryLaw(
             "the multiline-queue count of this ring is too large for exact rationals (merge more classes)",
         ));
@@ -255,6 +264,18 @@ pub fn multiline_queue_law(
         .into_iter()
         .collect();
     Ok((entries, total))
+}
+
+/// The number of queue services [`multiline_queue_law`] would perform for `system` (infinite for a
+/// segment), to compare with [`MAX_QUEUE_WORK`] before calling it.
+pub fn multiline_queue_work(system: &FiniteSystem) -> f64 {
+    match Rows::new(
+        system,
+        &Rates::tasep(1.0).unwrap_or_else(|_| unreachable!("1 is a rate")),
+    ) {
+        Ok(rows) => rows.work(),
+        Err(_) => f64::INFINITY,
+    }
 }
 
 /// Independent samples of the stationary law of a multi-species TASEP on a ring, by multiline

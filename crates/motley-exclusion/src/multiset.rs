@@ -40,17 +40,30 @@ pub(crate) fn multinomial(counts: &[u32]) -> Option<u64> {
     u64::try_from(total).ok()
 }
 
+/// The distinct colors of `colors`, increasing, and how many sites hold each (`O(n log n)`).
+pub(crate) fn color_counts(colors: &[Color]) -> (Vec<Color>, Vec<u32>) {
+    let mut sorted = colors.to_vec();
+    sorted.sort_unstable();
+    let mut values = Vec::new();
+    let mut counts: Vec<u32> = Vec::new();
+    for c in sorted {
+        if values.last() == Some(&c) {
+            *counts
+                .last_mut()
+                .unwrap_or_else(|| unreachable!("pushed with values")) += 1;
+        } else {
+            values.push(c);
+            counts.push(1);
+        }
+    }
+    (values, counts)
+}
+
 impl MultisetRanking {
     /// The ranking of the arrangements of `colors` (any order); `None` when there are more than
     /// `u64::MAX` of them.
     pub(crate) fn new(colors: &[Color]) -> Option<Self> {
-        let mut values: Vec<Color> = colors.to_vec();
-        values.sort_unstable();
-        values.dedup();
-        let counts: Vec<u32> = values
-            .iter()
-            .map(|v| colors.iter().filter(|&&c| c == *v).count() as u32)
-            .collect();
+        let (values, counts) = color_counts(colors);
         let total = multinomial(&counts)?;
         Some(MultisetRanking {
             values,

@@ -35,7 +35,7 @@
 use motley_colorblind::Color;
 
 use crate::exact::poisson_weights;
-use crate::multiset::{multinomial, MultisetRanking};
+use crate::multiset::{color_counts, multinomial, MultisetRanking};
 use crate::{ExclusionError, FiniteLattice, FiniteSystem, Law, Rates};
 
 /// Most arrangements the sparse solver accepts.
@@ -128,13 +128,7 @@ impl SparseSolver {
     /// The size of the computation for `system`, without building anything.
     pub fn estimate(system: &FiniteSystem) -> SparseSize {
         let colors = system.colors();
-        let mut values = colors.to_vec();
-        values.sort_unstable();
-        values.dedup();
-        let counts: Vec<u32> = values
-            .iter()
-            .map(|v| colors.iter().filter(|&&c| c == *v).count() as u32)
-            .collect();
+        let (_, counts) = color_counts(colors);
         let states = multinomial(&counts);
         let bonds = system.lattice().bonds(colors.len());
         let bytes = states.map_or(u64::MAX, |s| {

@@ -4,7 +4,9 @@ use crate::error::ScenarioError;
 use crate::scenario::{ClaimKind, ExactMode, ReferenceSpec, Scenario};
 use crate::unit::{claim_slots, units_for, Slot, Unit};
 
-pub use crate::exclusion_family::EXACT_EXCLUSION_SITES;
+pub use crate::exclusion_family::{
+    EXACT_EXCLUSION_SITES, EXACT_EXCLUSION_STATES, EXACT_STATIONARY_STATES,
+};
 pub use crate::six_vertex_family::{EXACT_SIX_VERTEX_SIDE, EXACT_SIX_VERTEX_VERTICES};
 
 /// What a run does.
