@@ -729,6 +729,16 @@ impl ModelFamily for ExclusionSpec {
         }
     }
 
+    fn sampling_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String> {
+        let stationary = self.times[time_index(read_of(o))].is_infinite();
+        (stationary && !self.tasep()).then(|| {
+            format!(
+                "observable `{}` reads the stationary law of model `{}`, an ASEP (p, q > 0); stationary samples are drawn by multiline queues, which cover TASEP only",
+                o.name, model.name
+            )
+        })
+    }
+
     fn censored_at(&self, read: &ReadSpec) -> Option<f64> {
         match read {
             ReadSpec::Exclusion(

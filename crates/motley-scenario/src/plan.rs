@@ -69,6 +69,26 @@ pub fn plan(s: &Scenario, file: &str) -> Result<Plan, ScenarioError> {
                 })
             }
         };
+        if !e {
+            let no_sample = claim_observables(&c.kind)
+                .into_iter()
+                .find_map(|o| crate::family::sampling_obstacle(s, o));
+            if let Some(why) = no_sample {
+                return Err(ScenarioError {
+                    file: file.to_string(),
+                    line: None,
+                    column: None,
+                    path: format!("claims[{i}]"),
+                    message: format!("this claim would be decided by Monte Carlo, which is impossible here: {why}"),
+                    hint: Some(match c.exact {
+                        ExactMode::Off => "use `exact: auto` or `exact: on`".into(),
+                        ExactMode::Auto | ExactMode::On => {
+                            "exact mode is impossible too (see `motley check`): read fewer classes or a smaller ring".into()
+                        }
+                    }),
+                });
+            }
+        }
         exact.push(e);
     }
     let mc: Vec<usize> = (0..s.claims.len()).filter(|&i| !exact[i]).collect();
