@@ -114,7 +114,8 @@ pub use line_data::LineData;
 pub use line_process::{LineProcess, LINE_STREAM};
 pub use motley_colorblind::Color;
 pub use multiline_queue::{
-    multiline_queue_law, multiline_queue_work, StationarySampler, MAX_QUEUE_WORK, STATIONARY_STREAM,
+    multiline_queue_law, multiline_queue_work, QueueCounts, StationarySampler, MAX_QUEUE_WORK,
+    STATIONARY_STREAM,
 };
 pub use rates::Rates;
 pub use readout::{Reading, Readings, Readout, ReadoutPlan, MAX_WINDOW};

@@ -41,6 +41,10 @@ use crate::{ExclusionError, FiniteLattice, FiniteSystem, Rates};
 /// Stream of the multiline-queue rows of a stationary sample (the dynamics use streams 0 to 2).
 pub const STATIONARY_STREAM: u64 = 3;
 
+/// Every arrangement with its number of multiline queues (sorted by arrangement), and the total
+/// number of multiline queues.
+pub type QueueCounts = (Vec<(Vec<Color>, BigUint)>, BigUint);
+
 /// Most elementary queue services [`multiline_queue_law`] performs.
 pub const MAX_QUEUE_WORK: f64 = 2e8;
 
@@ -147,8 +151,8 @@ fn serve(
     codes.sort_unstable_by(|a, b| b.cmp(a));
     codes.dedup();
     for c in codes {
-        for x in 0..n {
-            if prev[x] != c {
+        for (x, &here) in prev.iter().enumerate() {
+            if here != c {
                 continue;
             }
             // First free service site from x, looking against the jumps (x included).
@@ -215,7 +219,7 @@ fn subsets(n: usize, k: usize) -> Vec<Vec<bool>> {
 pub fn multiline_queue_law(
     system: &FiniteSystem,
     rates: &Rates,
-) -> Result<(Vec<(Vec<Color>, BigUint)>, BigUint), ExclusionError> {
+) -> Result<QueueCounts, ExclusionError> {
     let rows = Rows::new(system, rates)?;
     let n = rows.n;
     if rows.work() > MAX_QUEUE_WORK {
