@@ -184,3 +184,24 @@ fn stationary_samples_match_the_queue_counts() {
     let (_, _, p) = common::chi_square(&observed, &uniform);
     assert!(p < ALPHA, "the uniform law was not rejected: p = {p}");
 }
+
+/// The ASEP stationary iteration of the sparse solver (used for `time: stationary` with p, q > 0)
+/// against the enumerator's own iteration, on merged and unmerged colors of a ring: both reach a
+/// residual below 1e-15, and they agree within 1e-9 in ℓ¹ (far below any probability here).
+#[test]
+fn asep_stationary_iteration_agrees_with_the_enumerator() {
+    let rates = Rates::new(1.0, 0.4).unwrap();
+    for colors in [vec![3, 2, 1, 0, 0], vec![2, 2, 1, 0, 0, 0]] {
+        let s = system(FiniteLattice::Ring, &colors);
+        let a = ExactSolver::new(&FiniteProcess::new(s.clone(), rates))
+            .unwrap()
+            .stationary(1e-16, 10_000_000);
+        let b = SparseSolver::new(&s, rates)
+            .unwrap()
+            .stationary(1e-16, 10_000_000)
+            .to_law();
+        assert!(a.error_bound() < 1e-15 && b.error_bound() < 1e-15);
+        let d = l1(&a, &b);
+        assert!(d < 1e-9, "{colors:?}: ℓ¹ {d:e}");
+    }
+}
