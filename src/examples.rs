@@ -54,6 +54,14 @@ pub const EXAMPLES: &[(&str, &str)] = &[
         include_str!("../scenarios/shift-invariance.yaml"),
     ),
     ("swap-time", include_str!("../scenarios/swap-time.yaml")),
+    (
+        "inverse-nine-sites",
+        include_str!("../scenarios/inverse-nine-sites.yaml"),
+    ),
+    (
+        "stationary-ring",
+        include_str!("../scenarios/stationary-ring.yaml"),
+    ),
 ];
 
 /// The text of example `name`.

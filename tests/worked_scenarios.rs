@@ -92,6 +92,52 @@ fn packed_inverse_holds_exactly_and_by_monte_carlo() {
     );
 }
 
+/// Issue 18: the color–position symmetry decided exactly on all 9! arrangements, and on 20 sites
+/// through two merged classes per observable.
+#[test]
+fn inverse_nine_sites_holds_exactly_beyond_the_old_limit() {
+    let v = verdicts("inverse-nine-sites", &[]);
+    assert_eq!(
+        v,
+        owned(&[
+            ("exact-nine-sites", false, "exact"),
+            ("exact-twenty-sites-counts", false, "exact"),
+        ])
+    );
+}
+
+/// Issue 18: stationary laws of a TASEP ring in rationals (a true projection, exactly 0; a false
+/// symmetry, rejected exactly) and the same claims from stationary samples.
+#[test]
+fn stationary_ring_decides_in_rationals_and_by_samples() {
+    let (_dir, _, v) = run_report("stationary-ring", &[]);
+    let rows: Vec<(String, bool, String)> = v["claims"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|c| {
+            (
+                c["id"].as_str().unwrap().to_string(),
+                c["rejected"].as_bool().unwrap(),
+                c["decided_by"].as_str().unwrap().to_string(),
+            )
+        })
+        .collect();
+    assert_eq!(
+        rows,
+        owned(&[
+            ("projection-uniform", false, "exact"),
+            ("gap-symmetric", true, "exact"),
+            ("projection-uniform-monte-carlo", false, "monte-carlo"),
+            ("gap-symmetric-monte-carlo", true, "monte-carlo"),
+        ])
+    );
+    // Computed in rationals: the error bound is exactly 0 and the distance is 3/7 (to f64).
+    let exact = &v["claims"][1]["exact"];
+    assert_eq!(exact["error_bound"].as_f64(), Some(0.0));
+    assert_eq!(exact["discrepancy"].as_f64(), Some(3.0 / 7.0));
+}
+
 #[test]
 fn a_near_miss_stops_at_the_first_look_and_the_identity_is_confirmed_later() {
     let (_dir, _, v) = run_report("sampling-until-decided", &[]);

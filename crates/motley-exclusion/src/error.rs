@@ -143,6 +143,25 @@ pub enum ExclusionError {
         /// The limit.
         max: usize,
     },
+    /// The sparse exact solver's state space is above its limit.
+    #[error("this exact law needs {} arrangements of the (merged) colors, above the limit of {max}; merge more colors (read fewer classes) or use Monte Carlo", .states.map_or("more than 2^64".to_string(), |s| s.to_string()))]
+    ExactStatesAbove {
+        /// Arrangements needed (`None`: more than `u64::MAX`).
+        states: Option<u64>,
+        /// The limit.
+        max: u64,
+    },
+    /// The sparse exact solver would need more memory than allowed.
+    #[error("this exact law needs about {} MiB, above the limit of {} MiB; merge more colors (read fewer classes) or use Monte Carlo", .bytes / (1 << 20), .max / (1 << 20))]
+    ExactMemoryAbove {
+        /// Bytes estimated.
+        bytes: u64,
+        /// The limit.
+        max: u64,
+    },
+    /// A stationary law asked of a lattice or rates this engine cannot treat that way.
+    #[error("{0}")]
+    NoStationaryLaw(&'static str),
     /// A truncation bound outside (0, 1).
     #[error("the truncation bound must lie in (0, 1), got {0}")]
     BadTolerance(f64),

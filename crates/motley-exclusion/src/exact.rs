@@ -234,7 +234,7 @@ impl ExactSolver {
 /// `bound/4` (times the normaliser, which is ≥ 1), and normalising by the kept sum `S` then errs by
 /// at most `2 (T_left + T_right) / S ≤ bound` in ℓ¹. Each weight carries a relative rounding error of
 /// about `ε` per recurrence step from the mode (`O(√mean · ε)`), far below direct summation of logs.
-fn poisson_weights(mean: f64, bound: f64) -> (usize, Vec<f64>, f64) {
+pub(crate) fn poisson_weights(mean: f64, bound: f64) -> (usize, Vec<f64>, f64) {
     let mode = mean.floor() as usize;
     let quarter = bound / 4.0;
     // Right side, from the mode.

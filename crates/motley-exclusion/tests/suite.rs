@@ -7,4 +7,5 @@ mod line_published;
 mod monte_carlo_exact;
 mod properties;
 mod ring_stationary;
+mod sparse_exact;
 mod tracy_widom_trend;

@@ -116,7 +116,12 @@ impl Checker<'_> {
         }
     }
 
-    pub(crate) fn time(&self, path: &str, t: f64) -> Result<f64, ScenarioError> {
+    /// A read-out time: a number in (0, 1e9], or `stationary` as `f64::INFINITY`.
+    pub(crate) fn time(&self, path: &str, t: crate::raw::RawTime) -> Result<f64, ScenarioError> {
+        let t = match t {
+            crate::raw::RawTime::Named(_) => return Ok(t.value()),
+            crate::raw::RawTime::At(t) => t,
+        };
         if !t.is_finite() || t <= 0.0 || t > 1e9 {
             return Err(self.error(path, format!("time must be a number in (0, 1e9], got {t}")));
         }

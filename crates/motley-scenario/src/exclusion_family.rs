@@ -6,16 +6,23 @@
 //! same [`read`] function as the engine's own readings.
 
 use motley_colorblind::Color;
-use motley_exclusion::{Reading, Readout};
+use motley_exclusion::{
+    multiline_queue_law, multiline_queue_work, FiniteLattice, FiniteSystem, Rates, Reading,
+    Readout, SparseSolver, MAX_QUEUE_WORK,
+};
 use motley_reference::TasepStep;
+use num_rational::BigRational;
+use num_traits::ToPrimitive;
 
 use crate::checker::MAX_SIDE;
 use crate::error::ScenarioError;
-use crate::exclusion_unit::{build, ExclusionUnit, Process};
+use crate::exclusion_classes::Cuts;
+use crate::exclusion_unit::ExclusionUnit;
 use crate::family::{
     JointLaw, ModelFamily, RationalJointLaw, ReadContext, UnitSampler, Value, ValueBuffers,
+    ValueKey,
 };
-use crate::raw::{RawPairRead, RawRead, RawSetKind};
+use crate::raw::{RawPairRead, RawRead, RawSetKind, RawTime};
 use crate::read_set::set_elements;
 use crate::scenario::{
     ExclusionSpec, InitialSpec, LatticeSpec, ModelSpec, ObservableSpec, Profile, ReadSpec, SetRead,
@@ -66,8 +73,24 @@ pub enum ExclusionRead {
     Displacement(Color, usize),
 }
 
-/// Largest segment or ring decided exactly.
-pub const EXACT_EXCLUSION_SITES: usize = 7;
+/// Most sites of a segment or ring decided exactly (beyond, even one particle among holes is a
+/// Monte Carlo job; the arrangement limit below is the one that matters).
+pub const EXACT_EXCLUSION_SITES: usize = 4096;
+/// Most arrangements of the merged colors an exact law at a time `t` may have (the sparse solver's
+/// own limit; its memory limit is checked as well).
+pub const EXACT_EXCLUSION_STATES: u64 = motley_exclusion::MAX_SPARSE_STATES;
+/// Most arrangements of the merged colors a stationary law solved by iterating the generator may
+/// have (ASEP, or TASEP rings whose multiline-queue count is too large).
+pub const EXACT_STATIONARY_STATES: u64 = 200_000;
+/// Most elementary updates (arrangements × active bonds × uniformization steps) of one exact law:
+/// about a minute of one core at the rate measured by `cargo bench -p motley-exclusion --bench
+/// exact_reach` (see the README's Performance section).
+pub const EXACT_EXCLUSION_WORK: f64 = 9e9;
+/// Elementary updates per second of the sparse solver on one core (same benchmark), for messages.
+pub const EXACT_EXCLUSION_RATE: f64 = 1.5e8;
+/// Steps of the stationary iteration at most, and its target ℓ¹ change per step.
+const STATIONARY_STEPS: usize = 1_000_000;
+const STATIONARY_TOLERANCE: f64 = 1e-14;
 /// Exclusion events per second per thread assumed by the cost estimate (single core, this
 /// project's 2-core machine, release build; `cargo bench`, see the README's Performance section).
 pub const EXCLUSION_RATE: f64 = 5e7;
@@ -251,6 +274,51 @@ pub(crate) fn reading_of_arrangement(
     })
 }
 
+/// Reads the values of several observables from one arrangement of an exact law (merged colors,
+/// whose representatives read as the colors they stand for: see `exclusion_classes`).
+struct JointReader<'a> {
+    model: &'a ModelSpec,
+    observables: &'a [&'a ObservableSpec],
+    readouts: Vec<Vec<Readout>>,
+    initial: &'a [Color],
+    scratch: std::cell::RefCell<ValueBuffers>,
+}
+
+impl<'a> JointReader<'a> {
+    fn new(
+        spec: &ExclusionSpec,
+        model: &'a ModelSpec,
+        observables: &'a [&'a ObservableSpec],
+        initial: &'a [Color],
+    ) -> Self {
+        JointReader {
+            model,
+            observables,
+            readouts: observables
+                .iter()
+                .map(|o| readouts(o, spec.sites()))
+                .collect(),
+            initial,
+            scratch: std::cell::RefCell::new(ValueBuffers::default()),
+        }
+    }
+
+    /// The values of the observables on `arrangement`.
+    fn key(&self, arrangement: &[Color]) -> Result<Vec<ValueKey>, String> {
+        let mut scratch = self.scratch.borrow_mut();
+        let mut key = Vec::with_capacity(self.observables.len());
+        for (o, rs) in self.observables.iter().zip(&self.readouts) {
+            let readings = rs
+                .iter()
+                .map(|r| reading_of_arrangement(r, self.initial, arrangement))
+                .collect::<Option<Vec<Reading>>>()
+                .ok_or_else(|| format!("observable `{}` has no exact law", o.name))?;
+            key.push(read(self.model, o, &readings, 0, &mut scratch).key());
+        }
+        Ok(key)
+    }
+}
+
 fn set_read(k: RawSetKind) -> SetRead {
     match k {
         RawSetKind::Colors => SetRead::Colors,
@@ -284,6 +352,127 @@ impl ExclusionSpec {
     }
 }
 
+impl ExclusionSpec {
+    /// Refuses a read-out at `time: stationary` that is not a function of one arrangement, or on a
+    /// lattice other than a ring.
+    fn check_stationary(
+        &self,
+        cx: &ReadContext,
+        raw: &RawRead,
+        read: &ExclusionRead,
+    ) -> Result<(), ScenarioError> {
+        let p = format!("{}.{}.time", cx.path, raw.name());
+        if !matches!(self.lattice, LatticeSpec::Ring(_)) {
+            return Err(cx.error(
+                &p,
+                "`stationary` is offered on a ring (`lattice: {ring: n}`); on a segment or the line give a time",
+            ));
+        }
+        match read {
+            ExclusionRead::Window(..)
+            | ExclusionRead::Position(..)
+            | ExclusionRead::Arrangement(_)
+            | ExclusionRead::InverseArrangement(_)
+            | ExclusionRead::Configuration(_)
+            | ExclusionRead::Height(..) => Ok(()),
+            ExclusionRead::Current(..)
+            | ExclusionRead::Swapped(..)
+            | ExclusionRead::Overtaken { .. }
+            | ExclusionRead::Attempted(..)
+            | ExclusionRead::SwapTime(..)
+            | ExclusionRead::AttemptTime(..)
+            | ExclusionRead::Displacement(..) => Err(cx.error(
+                &p,
+                format!("`{}` depends on the path from time 0; at `stationary` read one arrangement (window, position, arrangement, inverse-arrangement, configuration, height)", raw.name()),
+            )),
+        }
+    }
+
+    /// The rates as the engine takes them.
+    fn rates(&self) -> Result<Rates, String> {
+        Rates::new(self.p.value, self.q.value).map_err(|x| x.to_string())
+    }
+
+    /// The segment or ring with the colors merged into the classes `observables` read, and the time
+    /// they are read at (`f64::INFINITY`: stationary).
+    fn merged_system(
+        &self,
+        observables: &[&ObservableSpec],
+    ) -> Result<(FiniteSystem, f64), String> {
+        let (InitialSpec::Sites(colors), LatticeSpec::Segment(_) | LatticeSpec::Ring(_)) =
+            (&self.initial, self.lattice)
+        else {
+            return Err("exact laws need a segment or a ring".into());
+        };
+        let lattice = match self.lattice {
+            LatticeSpec::Ring(_) => FiniteLattice::Ring,
+            LatticeSpec::Segment(_) | LatticeSpec::Line => FiniteLattice::Segment,
+        };
+        let merged = Cuts::union(observables).merge(colors);
+        let system = FiniteSystem::new(lattice, merged).map_err(|x| x.to_string())?;
+        let t = observables
+            .first()
+            .map_or(0.0, |o| self.times[time_index(read_of(o))]);
+        Ok((system, t))
+    }
+
+    /// Whether the stationary law is a TASEP's (multiline queues apply).
+    fn tasep(&self) -> bool {
+        self.p.value == 0.0 || self.q.value == 0.0
+    }
+
+    /// Why the exact law of `observables` (one time) cannot be computed here, with its size.
+    fn exact_size_obstacle(
+        &self,
+        model: &ModelSpec,
+        observables: &[&ObservableSpec],
+    ) -> Option<String> {
+        if let Some(n) = self.sites().filter(|&n| n > EXACT_EXCLUSION_SITES) {
+            return Some(format!(
+                "model `{}` has {n} sites; exact laws are computed up to {EXACT_EXCLUSION_SITES} sites (and {EXACT_EXCLUSION_STATES} arrangements of the classes read)",
+                model.name
+            ));
+        }
+        let (system, t) = match self.merged_system(observables) {
+            Ok(x) => x,
+            Err(e) => return Some(e),
+        };
+        let rates = match self.rates() {
+            Ok(r) => r,
+            Err(e) => return Some(e),
+        };
+        let size = SparseSolver::estimate(&system);
+        let states = size
+            .states
+            .map_or("more than 2^64".to_string(), |s| s.to_string());
+        if t.is_infinite() {
+            if self.tasep() && multiline_queue_work(&system) <= MAX_QUEUE_WORK {
+                return None;
+            }
+            if size.states.is_some_and(|s| s <= EXACT_STATIONARY_STATES) {
+                return None;
+            }
+            return Some(format!(
+                "model `{}`: the stationary law of the classes read has {states} arrangements; it is solved exactly up to {EXACT_STATIONARY_STATES} (and, for TASEP, by multiline queues up to {MAX_QUEUE_WORK:.0e} queue services)",
+                model.name
+            ));
+        }
+        if let Err(e) = size.check() {
+            return Some(format!("model `{}`: {e}", model.name));
+        }
+        let work = size.work(&rates, t);
+        if work > EXACT_EXCLUSION_WORK {
+            return Some(format!(
+                "model `{}`: the exact law at t = {t} ({states} arrangements of the classes read) would take about {:.0} s of one core, above the limit of {:.0} s",
+                model.name,
+                work / EXACT_EXCLUSION_RATE,
+                EXACT_EXCLUSION_WORK / EXACT_EXCLUSION_RATE
+            ));
+        }
+        None
+    }
+}
+
 impl ModelFamily for ExclusionSpec {
     fn name(&self) -> &'static str {
         "exclusion"
@@ -305,7 +494,8 @@ impl ModelFamily for ExclusionSpec {
             discrete: true,
         };
         let n = self.sites().map(|n| n as i64);
-        let time_index = |t: f64| -> usize {
+        let time_index = |t: RawTime| -> usize {
+            let t = t.value();
             self.times
                 .iter()
                 .position(|&x| x == t)
@@ -470,6 +660,9 @@ impl ModelFamily for ExclusionSpec {
             | RawRead::ExitPermutation(_)
             | RawRead::ExitPlace(_) => return Err(cx.wrong_family(self, raw)),
         };
+        if self.times[crate::exclusion_family::time_index(&read)].is_infinite() {
+            self.check_stationary(cx, raw, &read)?;
+        }
         Ok((ReadSpec::Exclusion(read), kind))
     }
 
@@ -502,15 +695,9 @@ impl ModelFamily for ExclusionSpec {
     }
 
     fn exact_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String> {
-        let Some(n) = self.sites() else {
+        if self.sites().is_none() {
             return Some(format!(
                 "model `{}` lives on the line; exact laws need a segment or a ring",
-                model.name
-            ));
-        };
-        if n > EXACT_EXCLUSION_SITES {
-            return Some(format!(
-                "model `{}` has {n} sites; exact laws are computed up to {EXACT_EXCLUSION_SITES}",
                 model.name
             ));
         }
@@ -544,8 +731,18 @@ impl ModelFamily for ExclusionSpec {
             | ExclusionRead::Height(..)
             | ExclusionRead::Swapped(..)
             | ExclusionRead::Overtaken { .. }
-            | ExclusionRead::Displacement(..) => None,
+            | ExclusionRead::Displacement(..) => self.exact_size_obstacle(model, &[o]),
         }
+    }
+
+    fn sampling_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String> {
+        let stationary = self.times[time_index(read_of(o))].is_infinite();
+        (stationary && !self.tasep()).then(|| {
+            format!(
+                "observable `{}` reads the stationary law of model `{}`, an ASEP (p, q > 0); stationary samples are drawn by multiline queues, which cover TASEP only",
+                o.name, model.name
+            )
+        })
     }
 
     fn censored_at(&self, read: &ReadSpec) -> Option<f64> {
@@ -557,12 +754,18 @@ impl ModelFamily for ExclusionSpec {
         }
     }
 
-    fn joint_obstacle(&self, _: &ModelSpec, parts: &[&ObservableSpec]) -> Option<String> {
+    fn joint_obstacle(&self, model: &ModelSpec, parts: &[&ObservableSpec]) -> Option<String> {
         let t = parts.first().map(|o| time_index(read_of(o)))?;
-        parts.iter().any(|o| time_index(read_of(o)) != t).then(|| {
-            "its observables read different times; exact joint laws are computed at one time"
-                .to_string()
-        })
+        if parts.iter().any(|o| time_index(read_of(o)) != t) {
+            return Some(
+                "its observables read different times; exact joint laws are computed at one time"
+                    .to_string(),
+            );
+        }
+        if parts.len() > 1 {
+            return self.exact_size_obstacle(model, parts);
+        }
+        None
     }
 
     fn exact_joint_law(
@@ -570,15 +773,6 @@ impl ModelFamily for ExclusionSpec {
         model: &ModelSpec,
         observables: &[&ObservableSpec],
     ) -> Result<JointLaw, String> {
-        let Process::Finite(p) = build(self)? else {
-            return Err("exact laws need a segment or a ring".into());
-        };
-        let solver = motley_exclusion::ExactSolver::new(&p).map_err(|x| x.to_string())?;
-        let initial = match &self.initial {
-            InitialSpec::Sites(c) => c.clone(),
-            InitialSpec::Line { .. } => Vec::new(),
-        };
-        // One solve per read-out time; the joint law needs all observables at one time.
         let t = observables
             .first()
             .map(|o| time_index(read_of(o)))
@@ -586,35 +780,94 @@ impl ModelFamily for ExclusionSpec {
         if observables.iter().any(|o| time_index(read_of(o)) != t) {
             return Err("an exact joint law reads all its observables at one time".into());
         }
-        let law = solver
-            .law_at(self.times[t], motley_exclusion::DEFAULT_TAIL)
-            .map_err(|x| x.to_string())?;
-        let mut scratch = ValueBuffers::default();
-        let mut cells = std::collections::BTreeMap::new();
-        for (arrangement, p) in law.entries() {
-            let mut key = Vec::with_capacity(observables.len());
-            for o in observables {
-                let readings = readouts(o, self.sites())
-                    .iter()
-                    .map(|r| reading_of_arrangement(r, &initial, arrangement))
-                    .collect::<Option<Vec<Reading>>>()
-                    .ok_or_else(|| format!("observable `{}` has no exact law", o.name))?;
-                key.push(read(model, o, &readings, 0, &mut scratch).key());
+        let (system, time) = self.merged_system(observables)?;
+        let rates = self.rates()?;
+        let initial = system.colors().to_vec();
+        let reader = JointReader::new(self, model, observables, &initial);
+        if time.is_infinite() && self.tasep() {
+            if let Ok((law, total)) = multiline_queue_law(&system, &rates) {
+                let total = BigRational::from_integer(total.into());
+                let mut cells = std::collections::BTreeMap::new();
+                let count = law.len();
+                for (arrangement, c) in law {
+                    let p = (BigRational::from_integer(c.into()) / &total)
+                        .to_f64()
+                        .unwrap_or(f64::NAN);
+                    *cells.entry(reader.key(&arrangement)?).or_insert(0.0) += p;
+                }
+                // Each probability rounded once (u), then summed (≤ count − 1 roundings of u).
+                return Ok(JointLaw {
+                    cells: cells.into_iter().collect(),
+                    error: 2.02 * f64::EPSILON / 2.0 * count as f64,
+                });
             }
-            *cells.entry(key).or_insert(0.0) += *p;
         }
+        let solver = SparseSolver::new(&system, rates).map_err(|x| x.to_string())?;
+        let law = if time.is_infinite() {
+            solver.stationary(STATIONARY_TOLERANCE, STATIONARY_STEPS)
+        } else {
+            solver
+                .law_at(time, motley_exclusion::DEFAULT_TAIL)
+                .map_err(|x| x.to_string())?
+        };
+        let mut cells = std::collections::BTreeMap::new();
+        let mut failure = None;
+        law.visit(|arrangement, p| match reader.key(arrangement) {
+            Ok(key) => *cells.entry(key).or_insert(0.0) += p,
+            Err(e) => failure = Some(e),
+        });
+        if let Some(e) = failure {
+            return Err(e);
+        }
+        // Summing the arrangements' probabilities into cells: at most one rounding (u) per
+        // arrangement in ℓ¹, all terms nonnegative.
         Ok(JointLaw {
             cells: cells.into_iter().collect(),
-            error: law.error_bound() + 1e-14 * (1 + law.entries().len()) as f64,
+            error: law.error_bound() + 1.01 * f64::EPSILON / 2.0 * law.state_count() as f64,
         })
     }
 
-    fn rational_joint_law(&self, _: &ModelSpec, _: &[&ObservableSpec]) -> Option<RationalJointLaw> {
-        None
+    fn rational_joint_law(
+        &self,
+        model: &ModelSpec,
+        observables: &[&ObservableSpec],
+    ) -> Option<RationalJointLaw> {
+        let (system, time) = self.merged_system(observables).ok()?;
+        if !(time.is_infinite() && self.tasep()) {
+            return None;
+        }
+        let (law, total) = multiline_queue_law(&system, &self.rates().ok()?).ok()?;
+        let initial = system.colors().to_vec();
+        let reader = JointReader::new(self, model, observables, &initial);
+        let total = BigRational::from_integer(total.into());
+        let mut entries = Vec::with_capacity(law.len());
+        for (arrangement, c) in law {
+            entries.push((
+                reader.key(&arrangement).ok()?,
+                BigRational::from_integer(c.into()) / &total,
+            ));
+        }
+        Some(RationalJointLaw::from_entries(entries))
     }
 
     fn cost_per_sample(&self) -> (f64, f64) {
-        let t = self.times.last().copied().unwrap_or(0.0);
+        // The last finite time; a stationary read draws one multiline queue (about one event per
+        // class and site).
+        let t = self
+            .times
+            .iter()
+            .copied()
+            .filter(|t| t.is_finite())
+            .fold(0.0, f64::max);
+        let stationary = match (self.times.iter().any(|t| t.is_infinite()), &self.initial) {
+            (true, InitialSpec::Sites(c)) => {
+                let mut v = c.clone();
+                v.sort_unstable();
+                v.dedup();
+                (c.len() * v.len()) as f64
+            }
+            (true, InitialSpec::Line { .. }) | (false, _) => 0.0,
+        };
         let rate = self.p.value + self.q.value;
         let (events, sites) = match self.lattice {
             LatticeSpec::Segment(n) | LatticeSpec::Ring(n) => (n as f64 * rate * t, n as f64),
@@ -628,7 +881,7 @@ impl ModelFamily for ExclusionSpec {
                 (0.5 * (block + width) * rate * t, width)
             }
         };
-        (events / EXCLUSION_RATE, sites * 16.0)
+        ((events + stationary) / EXCLUSION_RATE, sites * 16.0)
     }
 
     fn window_origin(&self, read: &ReadSpec) -> Option<i64> {

@@ -270,6 +270,12 @@ pub trait ModelFamily {
     /// Why observable `o` has no exact law here (`None`: it has one).
     fn exact_obstacle(&self, model: &ModelSpec, o: &ObservableSpec) -> Option<String>;
 
+    /// Why observable `o` cannot be sampled by Monte Carlo here (`None`: it can). Most read-outs
+    /// can; an exclusion read at `stationary` needs TASEP (multiline queues).
+    fn sampling_obstacle(&self, _model: &ModelSpec, _o: &ObservableSpec) -> Option<String> {
+        None
+    }
+
     /// Why the observables `parts` (each with an exact law) have no exact joint law here.
     fn joint_obstacle(&self, model: &ModelSpec, parts: &[&ObservableSpec]) -> Option<String>;
 
@@ -349,6 +355,16 @@ pub fn exact_obstacle(s: &Scenario, o: usize) -> Option<String> {
         .iter()
         .find_map(|obs| family.exact_obstacle(m, obs))
         .or_else(|| family.joint_obstacle(m, &parts))
+}
+
+/// Why observable `o` of `s` cannot be sampled by Monte Carlo (`None`: it can); a combination
+/// cannot when one of its components cannot.
+pub fn sampling_obstacle(s: &Scenario, o: usize) -> Option<String> {
+    let (m, parts) = family_parts(s, o);
+    let family = m.kind.family();
+    parts
+        .iter()
+        .find_map(|obs| family.sampling_obstacle(m, obs))
 }
 
 /// The exact law of observable `o` of `s` in floating point: a read-out's, or a combination's from

@@ -45,6 +45,7 @@ pub mod estimate;
 pub mod evaluate;
 pub mod evaluate_series;
 mod exact_decide;
+mod exclusion_classes;
 mod exclusion_family;
 mod exclusion_unit;
 pub mod family;

@@ -4,7 +4,9 @@ use crate::error::ScenarioError;
 use crate::scenario::{ClaimKind, ExactMode, ReferenceSpec, Scenario};
 use crate::unit::{claim_slots, units_for, Slot, Unit};
 
-pub use crate::exclusion_family::EXACT_EXCLUSION_SITES;
+pub use crate::exclusion_family::{
+    EXACT_EXCLUSION_SITES, EXACT_EXCLUSION_STATES, EXACT_STATIONARY_STATES,
+};
 pub use crate::six_vertex_family::{EXACT_SIX_VERTEX_SIDE, EXACT_SIX_VERTEX_VERTICES};
 
 /// What a run does.
@@ -67,6 +69,26 @@ pub fn plan(s: &Scenario, file: &str) -> Result<Plan, ScenarioError> {
                 })
             }
         };
+        if !e {
+            let no_sample = claim_observables(&c.kind)
+                .into_iter()
+                .find_map(|o| crate::family::sampling_obstacle(s, o));
+            if let Some(why) = no_sample {
+                return Err(ScenarioError {
+                    file: file.to_string(),
+                    line: None,
+                    column: None,
+                    path: format!("claims[{i}]"),
+                    message: format!("this claim would be decided by Monte Carlo, which is impossible here: {why}"),
+                    hint: Some(match c.exact {
+                        ExactMode::Off => "use `exact: auto` or `exact: on`".into(),
+                        ExactMode::Auto | ExactMode::On => {
+                            "exact mode is impossible too (see `motley check`): read fewer classes or a smaller ring".into()
+                        }
+                    }),
+                });
+            }
+        }
         exact.push(e);
     }
     let mc: Vec<usize> = (0..s.claims.len()).filter(|&i| !exact[i]).collect();

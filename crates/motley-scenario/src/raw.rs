@@ -382,7 +382,7 @@ pub enum RawRead {
 
 impl RawRead {
     /// The read-out's time, for the read-outs that take one.
-    pub fn time(&self) -> Option<f64> {
+    pub fn time(&self) -> Option<RawTime> {
         match self {
             RawRead::Height(h) => h.time,
             RawRead::Window(w) => Some(w.time),
@@ -432,6 +432,72 @@ impl RawRead {
     }
 }
 
+/// A read-out time: a number, or a named time (`stationary`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum RawTime {
+    /// A time `t > 0`.
+    At(f64),
+    /// A named time.
+    Named(RawNamedTime),
+}
+
+/// Named read-out times.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Deserialize, Serialize)]
+#[serde(rename_all = "kebab-case")]
+pub enum RawNamedTime {
+    /// The stationary law (exclusion on a ring): the limit `t → ∞`.
+    Stationary,
+}
+
+impl RawTime {
+    /// The time as a number: `f64::INFINITY` stands for `stationary`.
+    pub fn value(self) -> f64 {
+        match self {
+            RawTime::At(t) => t,
+            RawTime::Named(RawNamedTime::Stationary) => f64::INFINITY,
+        }
+    }
+}
+
+impl Serialize for RawTime {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        match self {
+            RawTime::At(t) => s.serialize_f64(*t),
+            RawTime::Named(n) => n.serialize(s),
+        }
+    }
+}
+
+impl<'de> Deserialize<'de> for RawTime {
+    fn deserialize<D: serde::Deserializer<'de>>(d: D) -> Result<Self, D::Error> {
+        struct Visitor;
+        impl serde::de::Visitor<'_> for Visitor {
+            type Value = RawTime;
+            fn expecting(&self, f: &mut std::fmt::Formatter) -> std::fmt::Result {
+                f.write_str("a time: a number > 0 or `stationary`")
+            }
+            fn visit_f64<E: serde::de::Error>(self, v: f64) -> Result<RawTime, E> {
+                Ok(RawTime::At(v))
+            }
+            fn visit_i64<E: serde::de::Error>(self, v: i64) -> Result<RawTime, E> {
+                Ok(RawTime::At(v as f64))
+            }
+            fn visit_u64<E: serde::de::Error>(self, v: u64) -> Result<RawTime, E> {
+                Ok(RawTime::At(v as f64))
+            }
+            fn visit_str<E: serde::de::Error>(self, v: &str) -> Result<RawTime, E> {
+                match v {
+                    "stationary" => Ok(RawTime::Named(RawNamedTime::Stationary)),
+                    other => Err(E::custom(format!(
+                        "a time is a number > 0 or `stationary`, got `{other}`"
+                    ))),
+                }
+            }
+        }
+        d.deserialize_any(Visitor)
+    }
+}
+
 /// `exit-permutation:` values.
 #[derive(Debug, Clone, Copy, Deserialize, Serialize)]
 #[serde(rename_all = "kebab-case")]
@@ -475,7 +541,7 @@ pub struct RawHeightRead {
     pub y: Option<i64>,
     /// Time (exclusion only).
     #[serde(default)]
-    pub time: Option<f64>,
+    pub time: Option<RawTime>,
 }
 
 /// `window:` keys.
@@ -487,7 +553,7 @@ pub struct RawWindowRead {
     /// Last site.
     pub to: i64,
     /// Time.
-    pub time: f64,
+    pub time: RawTime,
     /// Colors or positions.
     #[serde(rename = "as")]
     pub kind: RawSetKind,
@@ -500,7 +566,7 @@ pub struct RawPositionRead {
     /// The class followed (in the model's own numbers).
     pub class: i64,
     /// Time.
-    pub time: f64,
+    pub time: RawTime,
 }
 
 /// Keys of reads that only need a time.
@@ -508,7 +574,7 @@ pub struct RawPositionRead {
 #[serde(deny_unknown_fields, rename_all = "kebab-case")]
 pub struct RawTimeRead {
     /// Time.
-    pub time: f64,
+    pub time: RawTime,
 }
 
 /// `current:` keys.
@@ -518,7 +584,7 @@ pub struct RawCurrentRead {
     /// Left site of the bond.
     pub bond: i64,
     /// Time.
-    pub time: f64,
+    pub time: RawTime,
 }
 
 /// `swapped:` and `attempted:` keys.
@@ -528,7 +594,7 @@ pub struct RawPairRead {
     /// The two classes (in the model's own numbers).
     pub classes: [i64; 2],
     /// Time.
-    pub time: f64,
+    pub time: RawTime,
 }
 
 /// One claim.

@@ -62,6 +62,7 @@ fn all_keys() -> BTreeSet<String> {
         accepted::<RawTimeRead>(s),
         accepted::<RawCurrentRead>(s),
         accepted::<RawPairRead>(s),
+        accepted::<RawNamedTime>(u),
         accepted::<RawClaim>(s),
         accepted::<RawLawOf>(s),
         accepted::<RawReference>(m),
