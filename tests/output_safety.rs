@@ -5,26 +5,16 @@ use std::time::Instant;
 
 use crate::common::*;
 
-const SCENARIO: &str = "
-name: small
-seed: 9
-samples: 400
-models:
-  rect:
-    six-vertex: {width: 6, height: 5, b1: 0.45, b2: 0.55, left: rainbow, bottom: empty}
-observables:
-  h: {of: rect, read: {height: {x: 3, y: 5}}}
-claims:
-  - id: h
-    describe: h
-";
-
 #[test]
 fn an_unwritable_output_is_refused_before_sampling() {
     let d = tempfile::tempdir().unwrap();
     let f = d.path().join("s.yaml");
     // Millions of samples: a refusal after sampling would take minutes.
-    std::fs::write(&f, SCENARIO.replace("samples: 400", "samples: 100000000")).unwrap();
+    std::fs::write(
+        &f,
+        SMALL_SCENARIO.replace("samples: 2000", "samples: 100000000"),
+    )
+    .unwrap();
     // A plain file where the output's parent folder should be: it cannot be created (this holds
     // for every user, root included, unlike a read-only folder).
     let blocker = d.path().join("blocker");
@@ -48,7 +38,7 @@ fn an_unwritable_output_is_refused_before_sampling() {
 fn overwrite_keeps_folders_and_files_motley_did_not_write() {
     let d = tempfile::tempdir().unwrap();
     let f = d.path().join("s.yaml");
-    std::fs::write(&f, SCENARIO).unwrap();
+    std::fs::write(&f, SMALL_SCENARIO).unwrap();
     let (f, out) = (f.to_str().unwrap(), d.path().join("report"));
     let o = out.to_str().unwrap();
     run_ok(&["run", f, "--out", o, "--quiet"]);
@@ -82,7 +72,7 @@ fn overwrite_keeps_folders_and_files_motley_did_not_write() {
 fn shards_default_beside_the_report_and_merge_keeps_its_inputs() {
     let d = tempfile::tempdir().unwrap();
     let f = d.path().join("s.yaml");
-    std::fs::write(&f, SCENARIO).unwrap();
+    std::fs::write(&f, SMALL_SCENARIO).unwrap();
     for k in ["1/2", "2/2"] {
         let r = motley()
             .current_dir(d.path())

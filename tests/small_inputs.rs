@@ -6,24 +6,11 @@ use std::process::Stdio;
 
 use crate::common::*;
 
-const SCENARIO: &str = "name: small
-seed: 4
-samples: 2000
-models:
-  rect:
-    six-vertex: {width: 6, height: 5, b1: 0.45, b2: 0.55, left: rainbow, bottom: empty}
-observables:
-  h: {of: rect, read: {height: {x: 3, y: 5}}}
-claims:
-  - id: h
-    describe: h
-";
-
 #[test]
 fn a_closed_standard_output_is_no_panic() {
     let d = tempfile::tempdir().unwrap();
     let f = d.path().join("s.yaml");
-    std::fs::write(&f, SCENARIO).unwrap();
+    std::fs::write(&f, SMALL_SCENARIO).unwrap();
     let out = d.path().join("report");
     // `motley run … | head -0`: the reader is gone before anything is printed.
     let mut child = motley()
@@ -51,7 +38,7 @@ fn a_closed_standard_output_is_no_panic() {
 fn a_byte_order_mark_is_accepted() {
     let d = tempfile::tempdir().unwrap();
     let f = d.path().join("bom.yaml");
-    std::fs::write(&f, format!("\u{feff}{SCENARIO}")).unwrap();
+    std::fs::write(&f, format!("\u{feff}{SMALL_SCENARIO}")).unwrap();
     let r = run_ok(&["check", f.to_str().unwrap()]);
     assert!(String::from_utf8_lossy(&r.stdout).contains("valid scenario `small`"));
 }
@@ -81,7 +68,7 @@ fn progress_goes_to_a_log_when_stderr_is_not_a_terminal() {
     // About 2 s of sampling on one thread (60 × 60 rectangles).
     std::fs::write(
         &f,
-        SCENARIO
+        SMALL_SCENARIO
             .replace("samples: 2000", "samples: 40000")
             .replace("width: 6, height: 5", "width: 60, height: 60")
             .replace("x: 3, y: 5", "x: 30, y: 60"),
@@ -118,7 +105,7 @@ fn a_run_estimated_above_a_day_needs_yes_and_check_says_so_in_json() {
     // 2^40 samples of a 60 × 60 rectangle: years of work by any estimate.
     std::fs::write(
         &f,
-        SCENARIO
+        SMALL_SCENARIO
             .replace("samples: 2000", "samples: 1099511627776")
             .replace("width: 6, height: 5", "width: 60, height: 60")
             .replace("x: 3, y: 5", "x: 30, y: 60"),

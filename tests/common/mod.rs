@@ -65,3 +65,18 @@ pub fn assert_same(a: &serde_json::Value, b: &serde_json::Value, what: &str) {
         panic!("{what}: results differ at {line}");
     }
 }
+
+/// A small describe-only scenario (a 6 × 5 rectangle, one height) with `samples` per side, for
+/// tests of the command line rather than of the numbers.
+pub const SMALL_SCENARIO: &str = "name: small
+seed: 9
+samples: 2000
+models:
+  rect:
+    six-vertex: {width: 6, height: 5, b1: 0.45, b2: 0.55, left: rainbow, bottom: empty}
+observables:
+  h: {of: rect, read: {height: {x: 3, y: 5}}}
+claims:
+  - id: h
+    describe: h
+";

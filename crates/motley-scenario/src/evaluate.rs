@@ -312,6 +312,7 @@ fn detectable_kolmogorov(n_a: u64, n_b: Option<u64>, level: f64, power: f64) -> 
     .min(1.0)
 }
 
+#[allow(clippy::too_many_arguments)]
 fn same_law_scalars(
     s: &Scenario,
     level: f64,

@@ -46,7 +46,7 @@ pub fn chi_square_quantile(p: f64, dof: f64) -> f64 {
 /// return infinity. Bisection on [`chi_square_sf`] (which does not cancel) to relative precision
 /// 1e-13, started from the CDF quantile where that is finite.
 pub fn chi_square_upper_quantile(a: f64, dof: f64) -> f64 {
-    if !(a > 0.0 && a < 1.0) || !(dof > 0.0) {
+    if !(a > 0.0 && a < 1.0 && dof > 0.0) {
         return f64::NAN;
     }
     if a > 1e-3 {
