@@ -287,7 +287,7 @@ fn a_real_near_miss_is_detected_with_the_promised_power_at_the_printed_differenc
 /// EQUAL WITHIN ε: with the sample size `motley check` gives for ε = 0.05 (power 0.8), two
 /// replicas of one law come out EQUAL WITHIN 0.05 in at least 0.8 − 2 SE = 0.76 of 400
 /// replications, and a near miss at total variation above ε (b1 perturbed by 0.05: exact TV
-/// 0.0671) in at most α + 2 SE = 0.05 + 0.022 of them. The sample size is a worst case over laws,
+/// 0.0668) in at most α + 2 SE = 0.05 + 0.022 of them. The sample size is a worst case over laws,
 /// so the first share is near 1 here; the bound is valid for every pair of laws, so the second is
 /// near 0. False alarms: at most P(Bin(400, 0.8) < 304) = 0.023 and P(Bin(400, 0.05) > 28) = 0.02.
 #[test]
